@@ -1,0 +1,136 @@
+# Shared bring-up for the start and test commands: dependencies, PostgreSQL on loopback,
+# the local fake services, and a cleanup that stops only what this run started.
+set -euo pipefail
+
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+cd "$ROOT"
+
+# Settings from .env (if any) override the defaults below; see .env.example.
+if [ -f .env ]; then set -a; . ./.env; set +a; fi
+export PGPORT="${PGPORT:-54329}"
+DATA="$ROOT/.data"
+STARTED_PIDS=()
+STARTED_PG=0
+
+log() { printf '\033[1;32m[inchwarden]\033[0m %s\n' "$*"; }
+die() { printf '\033[1;31m[inchwarden]\033[0m %s\n' "$*" >&2; exit 1; }
+
+as_pg() {
+	# PostgreSQL refuses to run as root: run its tools as the postgres user then.
+	if [ "$(id -u)" = 0 ]; then runuser -u postgres -- "$@"; else "$@"; fi
+}
+
+apt_install() {
+	command -v apt-get >/dev/null || die "apt-get is missing: install $* by hand"
+	local sudo=""
+	[ "$(id -u)" = 0 ] || sudo="sudo"
+	log "installing $* from Debian's packages"
+	$sudo env DEBIAN_FRONTEND=noninteractive apt-get update -qq
+	$sudo env DEBIAN_FRONTEND=noninteractive apt-get install -y -qq "$@" >/dev/null
+}
+
+ensure_deps() {
+	if [ ! -d node_modules ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
+		log "installing dependencies (npm ci)"
+		npm ci --no-audit --no-fund
+	fi
+}
+
+find_pgbin() {
+	local d
+	for d in /usr/lib/postgresql/*/bin; do
+		[ -x "$d/initdb" ] && [ -x "$d/pg_ctl" ] && { echo "$d"; return 0; }
+	done
+	return 1
+}
+
+ensure_pg_binaries() {
+	PGBIN="$(find_pgbin || true)"
+	if [ -z "$PGBIN" ] || ! command -v psql >/dev/null; then
+		apt_install postgresql postgresql-client
+		PGBIN="$(find_pgbin)" || die "PostgreSQL binaries not found after install"
+	fi
+	export PGBIN
+}
+
+pg_up() {
+	ensure_pg_binaries
+	mkdir -p "$DATA/run"
+	if [ ! -f "$DATA/pg/PG_VERSION" ]; then
+		log "creating the PostgreSQL cluster in .data/pg"
+		mkdir -p "$DATA/pg"
+		if [ "$(id -u)" = 0 ]; then chown -R postgres:postgres "$DATA/pg" "$DATA/run"; fi
+		chmod 700 "$DATA/pg"
+		as_pg "$PGBIN/initdb" -D "$DATA/pg" -U postgres --auth=trust --encoding=UTF8 \
+			--locale=C.UTF-8 >/dev/null
+	fi
+	if [ "$(id -u)" = 0 ]; then chown postgres:postgres "$DATA/run"; fi
+	if as_pg "$PGBIN/pg_ctl" -D "$DATA/pg" status >/dev/null 2>&1; then
+		log "PostgreSQL already running on 127.0.0.1:$PGPORT"
+	else
+		log "starting PostgreSQL on 127.0.0.1:$PGPORT"
+		touch "$DATA/pg.log"
+		if [ "$(id -u)" = 0 ]; then chown postgres:postgres "$DATA/pg.log"; fi
+		as_pg "$PGBIN/pg_ctl" -D "$DATA/pg" -l "$DATA/pg.log" -w -t 60 \
+			-o "-c listen_addresses=127.0.0.1 -p $PGPORT -k $DATA/run" start >/dev/null \
+			|| { tail -20 "$DATA/pg.log"; die "PostgreSQL did not start"; }
+		STARTED_PG=1
+	fi
+}
+
+ensure_database() {
+	local name="$1"
+	if ! psql -h 127.0.0.1 -p "$PGPORT" -U postgres -tAc "select 1 from pg_database where datname='$name'" | grep -q 1; then
+		log "creating database $name"
+		psql -h 127.0.0.1 -p "$PGPORT" -U postgres -qc "create database \"$name\"" >/dev/null
+	fi
+}
+
+recreate_database() {
+	local name="$1"
+	psql -h 127.0.0.1 -p "$PGPORT" -U postgres -qc "drop database if exists \"$name\" with (force)" >/dev/null
+	psql -h 127.0.0.1 -p "$PGPORT" -U postgres -qc "create database \"$name\"" >/dev/null
+}
+
+wait_for_port() {
+	local port="$1" what="$2" i
+	for i in $(seq 1 150); do
+		if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then return 0; fi
+		sleep 0.2
+	done
+	die "$what did not come up on port $port"
+}
+
+start_bg() {
+	# start_bg <name> <command...>: run in the background, log under .data/, remember the pid
+	local name="$1"; shift
+	"$@" >"$DATA/$name.log" 2>&1 &
+	STARTED_PIDS+=("$!")
+}
+
+start_fake_smtp() {
+	if (exec 3<>"/dev/tcp/127.0.0.1/$SMTP_PORT") 2>/dev/null; then
+		die "port $SMTP_PORT is taken: is another run of the fake SMTP server up?"
+	fi
+	start_bg "fake-smtp-$SMTP_PORT" node_modules/.bin/tsx scripts/fake-smtp.ts
+	wait_for_port "$SMTP_PORT" "the fake SMTP server"
+	wait_for_port "$(node -e "console.log(new URL(process.env.FAKE_SMTP_API).port)")" "the fake SMTP listing"
+}
+
+cleanup() {
+	local pid
+	for pid in "${STARTED_PIDS[@]:-}"; do
+		[ -n "$pid" ] && kill "$pid" 2>/dev/null || true
+	done
+	for pid in "${STARTED_PIDS[@]:-}"; do
+		[ -n "$pid" ] && wait "$pid" 2>/dev/null || true
+	done
+	if [ "$STARTED_PG" = 1 ]; then
+		log "stopping PostgreSQL"
+		as_pg "$PGBIN/pg_ctl" -D "$DATA/pg" -m fast -w stop >/dev/null 2>&1 || true
+	fi
+}
+
+knex_cli() {
+	NODE_OPTIONS='--import tsx' node_modules/.bin/knex --knexfile knexfile.ts "$@"
+}

@@ -1,0 +1,43 @@
+#!/usr/bin/env bash
+# npm start: dependencies, PostgreSQL, the fake SMTP server, migrations, the demo (only into
+# an empty database), a production build, and the app at http://127.0.0.1:3000. Ctrl-C stops all.
+source "$(dirname "$0")/lib.sh"
+
+export HOST="${HOST:-127.0.0.1}" PORT="${PORT:-3000}"
+export ORIGIN="${ORIGIN:-http://$HOST:$PORT}"
+export DATABASE_URL="${DATABASE_URL:-postgres://postgres@127.0.0.1:$PGPORT/inchwarden}"
+export SMTP_HOST="${SMTP_HOST:-127.0.0.1}" SMTP_PORT="${SMTP_PORT:-2525}"
+export FAKE_SMTP_API="${FAKE_SMTP_API:-http://127.0.0.1:2580}"
+
+trap cleanup EXIT
+trap 'exit 130' INT TERM
+
+ensure_deps
+pg_up
+ensure_database inchwarden
+start_fake_smtp
+
+log "migrating"
+knex_cli migrate:latest >/dev/null
+node_modules/.bin/tsx scripts/seed-demo.ts
+
+log "building"
+node_modules/.bin/svelte-kit sync
+node_modules/.bin/vite build --logLevel warn
+
+start_bg app node build
+wait_for_port "$PORT" "the app"
+cat <<MSG
+
+  Inchwarden is running at $ORIGIN
+
+  Demo sign-ins (password for all: $(node_modules/.bin/tsx -e "import('./seeds/data/demo.ts').then(m => console.log(m.DEMO_PASSWORD))")):
+$(node_modules/.bin/tsx -e "import('./seeds/data/demo.ts').then(m => m.DEMO_PEOPLE.forEach(p => console.log('    ' + p.email.padEnd(34) + p.roles.join(', '))))")
+
+  The fake SMTP server's messages appear on the admin outbox page.
+  Press Ctrl-C to stop everything.
+
+MSG
+tail -f "$DATA/app.log" &
+STARTED_PIDS+=("$!")
+wait "${STARTED_PIDS[@]:0:2}"

@@ -1,0 +1,46 @@
+#!/usr/bin/env bash
+# npm test: the same bring-up with a separate test database and ports, then svelte-check,
+# Vitest (unit and integration on real PostgreSQL over real HTTP) and Playwright in Debian's
+# Chromium. Every stage runs; the command fails if any stage failed.
+source "$(dirname "$0")/lib.sh"
+
+export NODE_ENV=production
+export HOST=127.0.0.1 PORT="${TEST_PORT:-3100}"
+export ORIGIN="http://127.0.0.1:$PORT" TEST_BASE_URL="http://127.0.0.1:$PORT"
+export DATABASE_URL="${TEST_DATABASE_URL:-postgres://postgres@127.0.0.1:$PGPORT/inchwarden_test}"
+export SMTP_HOST=127.0.0.1 SMTP_PORT="${TEST_SMTP_PORT:-2526}"
+export FAKE_SMTP_API="http://127.0.0.1:${TEST_SMTP_API_PORT:-2581}"
+# The test server trusts x-forwarded-for so tests can act as distinct client addresses.
+export ADDRESS_HEADER=x-forwarded-for XFF_DEPTH=1
+export CHROMIUM_PATH="${CHROMIUM_PATH:-/usr/bin/chromium}"
+
+trap cleanup EXIT
+trap 'exit 130' INT TERM
+
+ensure_deps
+[ -x "$CHROMIUM_PATH" ] || apt_install chromium
+pg_up
+log "fresh test database"
+recreate_database "${DATABASE_URL##*/}"
+start_fake_smtp
+knex_cli migrate:latest >/dev/null
+node_modules/.bin/tsx scripts/seed-demo.ts
+
+FAILED=()
+stage() { local name="$1"; shift; log "── $name"; "$@" || FAILED+=("$name"); }
+
+stage "svelte-check" bash -c 'node_modules/.bin/svelte-kit sync && node_modules/.bin/svelte-check --tsconfig ./tsconfig.json --output human --threshold error'
+log "building"
+node_modules/.bin/vite build --logLevel warn
+start_bg app-test node build
+wait_for_port "$PORT" "the app"
+
+stage "vitest" env NODE_OPTIONS='--import tsx' node_modules/.bin/vitest run "$@"
+stage "playwright" node_modules/.bin/playwright test
+
+echo
+if [ "${#FAILED[@]}" -gt 0 ]; then
+	log "FAILED: ${FAILED[*]}"
+	exit 1
+fi
+log "all stages passed: svelte-check, vitest, playwright"
