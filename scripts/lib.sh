@@ -117,6 +117,16 @@ start_fake_smtp() {
 	wait_for_port "$(node -e "console.log(new URL(process.env.FAKE_SMTP_API).port)")" "the fake SMTP listing"
 }
 
+start_fake_s3() {
+	local port
+	port="$(node -e "console.log(new URL(process.env.S3_ENDPOINT).port)")"
+	if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then
+		die "port $port is taken: is another run of the fake S3 store up?"
+	fi
+	start_bg "fake-s3-$port" node_modules/.bin/tsx scripts/fake-s3.ts
+	wait_for_port "$port" "the fake S3 store"
+}
+
 cleanup() {
 	local pid
 	for pid in "${STARTED_PIDS[@]:-}"; do

@@ -8,6 +8,10 @@ export ORIGIN="${ORIGIN:-http://$HOST:$PORT}"
 export DATABASE_URL="${DATABASE_URL:-postgres://postgres@127.0.0.1:$PGPORT/inchwarden}"
 export SMTP_HOST="${SMTP_HOST:-127.0.0.1}" SMTP_PORT="${SMTP_PORT:-2525}"
 export FAKE_SMTP_API="${FAKE_SMTP_API:-http://127.0.0.1:2580}"
+export S3_ENDPOINT="${S3_ENDPOINT:-http://127.0.0.1:4569}" S3_BUCKET="${S3_BUCKET:-inchwarden}"
+export S3_REGION="${S3_REGION:-us-east-1}" S3_FORCE_PATH_STYLE="${S3_FORCE_PATH_STYLE:-true}"
+export S3_ACCESS_KEY_ID="${S3_ACCESS_KEY_ID:-S3RVER}" S3_SECRET_ACCESS_KEY="${S3_SECRET_ACCESS_KEY:-S3RVER}"
+export FAKE_S3_DIR="${FAKE_S3_DIR:-$DATA/s3}"
 
 trap cleanup EXIT
 trap 'exit 130' INT TERM
@@ -16,6 +20,7 @@ ensure_deps
 pg_up
 ensure_database inchwarden
 start_fake_smtp
+if [ "${S3_ENDPOINT#http://127.0.0.1}" != "$S3_ENDPOINT" ]; then start_fake_s3; fi
 
 log "migrating"
 knex_cli migrate:latest >/dev/null

@@ -10,6 +10,9 @@ export ORIGIN="http://127.0.0.1:$PORT" TEST_BASE_URL="http://127.0.0.1:$PORT"
 export DATABASE_URL="${TEST_DATABASE_URL:-postgres://postgres@127.0.0.1:$PGPORT/inchwarden_test}"
 export SMTP_HOST=127.0.0.1 SMTP_PORT="${TEST_SMTP_PORT:-2526}"
 export FAKE_SMTP_API="http://127.0.0.1:${TEST_SMTP_API_PORT:-2581}"
+export S3_ENDPOINT="http://127.0.0.1:${TEST_S3_PORT:-4570}" S3_BUCKET=inchwarden-test S3_REGION=us-east-1
+export S3_FORCE_PATH_STYLE=true S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER
+export FAKE_S3_DIR="$DATA/s3-test"
 # The test server trusts x-forwarded-for so tests can act as distinct client addresses.
 export ADDRESS_HEADER=x-forwarded-for XFF_DEPTH=1
 export CHROMIUM_PATH="${CHROMIUM_PATH:-/usr/bin/chromium}"
@@ -22,7 +25,9 @@ ensure_deps
 pg_up
 log "fresh test database"
 recreate_database "${DATABASE_URL##*/}"
+rm -rf "$FAKE_S3_DIR"
 start_fake_smtp
+start_fake_s3
 knex_cli migrate:latest >/dev/null
 node_modules/.bin/tsx scripts/seed-demo.ts
 
