@@ -1,0 +1,343 @@
+// The check itself: applies every rule of the profile to a proposed move and assembles the report
+// (verdict, per-piece cost and findings, unit findings, summaries). Pure and deterministic.
+import type { CheckReport, CheckRequest, Finding, PieceReport } from '../schemas/check';
+import { boxOf, signedDistance, type Box, type Rounded } from './convex';
+import { classList, inches, limitText } from './messages';
+import { climbIn, horizontalIn, pathSteps, pivotIn, type PathStep, type Touch } from './path-cost';
+import { resolveProfile } from './profile';
+import { Scene, type ScenePiece } from './scene';
+import { spacingFindings } from './spacing';
+import { objectiveSummaries, ringSummaries } from './summaries';
+import { pivotSweep, translationSweep } from './sweep';
+import { distanceToRegion, meetsRegion, overhangOf, touchIntervals, wallMet, type PreparedTerrain } from './terrain';
+
+function finding(
+	code: Finding['code'],
+	pieces: string[],
+	measured: number,
+	limit: number,
+	message: string,
+	extra: { severity?: Finding['severity']; terrain?: string } = {}
+): Finding {
+	const f: Finding = { code, severity: extra.severity ?? 'error', pieces, measured, limit, message };
+	if (extra.terrain !== undefined) f.terrain = extra.terrain;
+	return f;
+}
+
+/** The swept regions of one leg: outer (for pieces) and inner (shrunk by ε, for terrain). */
+interface Leg {
+	step: PathStep;
+	outer: Rounded[];
+	inner: Rounded[];
+	boxes: Box[];
+}
+
+function legsOf(scene: Scene, p: ScenePiece, steps: PathStep[]): Leg[] {
+	return steps.map((step) => {
+		const f = step.from;
+		if (step.kind === 'move') {
+			const outer = translationSweep(placeOuter(p, f.x, f.y, f.facingDeg), step.dx, step.dy);
+			const inner = translationSweep(scene.inner(p, f), step.dx, step.dy);
+			return { step, outer: [outer], inner: [inner], boxes: [boxOf(outer.pts, outer.r)] };
+		}
+		const outer = pivotSweep(p.local.outer, p.local.rMaxIn, f.x, f.y, f.facingDeg, step.deltaDeg);
+		const inner = pivotSweep(p.local.inner, p.local.rMaxIn, f.x, f.y, f.facingDeg, step.deltaDeg);
+		return { step, outer, inner, boxes: outer.map((s) => boxOf(s.pts, s.r)) };
+	});
+}
+
+function placeOuter(p: ScenePiece, x: number, y: number, facingDeg: number): Rounded {
+	if (x === p.startPose.x && y === p.startPose.y && facingDeg === p.startPose.facingDeg) return p.start;
+	const lp = p.local.outer.pts;
+	if (lp.length === 2) return { pts: [x + lp[0], y + lp[1]], r: p.local.outer.r };
+	const th = (facingDeg * Math.PI) / 180;
+	const c = Math.cos(th);
+	const s = Math.sin(th);
+	const pts = new Array<number>(lp.length);
+	for (let i = 0; i < lp.length; i += 2) {
+		pts[i] = x + lp[i] * c - lp[i + 1] * s;
+		pts[i + 1] = y + lp[i] * s + lp[i + 1] * c;
+	}
+	return { pts, r: p.local.outer.r };
+}
+
+/** How far a box reaches beyond the board's edges (≤ 0 when on it). */
+function offBoardBy(b: Box, widthIn: number, depthIn: number): number {
+	return Math.max(-b.minX, -b.minY, b.maxX - widthIn, b.maxY - depthIn);
+}
+
+export function runCheck(request: CheckRequest): CheckReport {
+	const profile = resolveProfile(request.profile);
+	const eps = profile.tolerance;
+	const keepOutWithin = profile.keepOut + eps;
+	const scene = new Scene(request, profile);
+	const { move } = request;
+	const kind = move.kind;
+	const members = scene.members;
+	const { width: widthIn, depth: depthIn } = request.board;
+	const climbers = new Set<string>(profile.climbers);
+	const wallPassers = new Set<string>(profile.wallPassers);
+
+	const unitFindings: Finding[] = [];
+	const perPiece = new Map<string, Finding[]>();
+	const reports: Record<string, PieceReport> = {};
+	for (const m of members) perPiece.set(m.id, []);
+	const add = (f: Finding) => perPiece.get(f.pieces[0])!.push(f);
+
+	// ---- Start: contact with an enemy at the start of the move
+	let closest: { d: number; a: ScenePiece; b: ScenePiece } | null = null;
+	for (const m of members) {
+		for (const o of scene.nearStart(m.startBox, keepOutWithin)) {
+			if (o.side === m.side) continue;
+			const d = signedDistance(m.start, o.start);
+			if (d <= keepOutWithin && (!closest || d < closest.d)) closest = { d, a: m, b: o };
+		}
+	}
+	if (closest && (kind === 'move' || kind === 'dash')) {
+		unitFindings.push(
+			finding(
+				'locked',
+				[closest.a.id, closest.b.id],
+				closest.d,
+				profile.keepOut,
+				`${closest.a.id} starts ${inches(closest.d)} in from enemy ${closest.b.id}; a unit within ${limitText(profile.keepOut)} in of an enemy may only hold or withdraw`
+			)
+		);
+	}
+	if (!closest && kind === 'withdraw') {
+		const nearest = nearestEnemy(scene, members);
+		const tail = nearest
+			? `its nearest enemy is ${inches(nearest.d)} in away`
+			: 'there is no enemy on the table';
+		unitFindings.push(
+			finding(
+				'not-in-contact',
+				nearest ? [nearest.a.id, nearest.b.id] : [members[0].id],
+				nearest ? nearest.d : Number.MAX_VALUE,
+				profile.keepOut,
+				`unit ${move.unit} withdraws without being within ${limitText(profile.keepOut)} in of an enemy (${tail}); the withdraw is legal but gives up its move`,
+				{ severity: 'warning' }
+			)
+		);
+	}
+
+	const allowanceIn = (m: ScenePiece) =>
+		kind === 'hold' ? 0 : kind === 'dash' ? m.src.allowance + (move.die ?? 0) : m.src.allowance;
+
+	// ---- Each piece: cost and path
+	for (const m of members) {
+		const waypoints = m.moved ? move.paths![m.id] : [];
+		const steps = pathSteps(m.src.at, waypoints);
+		const legs = legsOf(scene, m, steps);
+		const climbs = m.flies ? profile.fliersPayClimb : true;
+		const touches: Touch[] = [];
+		const blocked = new Map<string, PreparedTerrain>();
+		const walled = new Map<string, PreparedTerrain>();
+		const impassable = new Map<string, PreparedTerrain>();
+		let worstOffBoard = -Infinity;
+		const minToOther = new Map<ScenePiece, number>();
+
+		legs.forEach((leg, li) => {
+			leg.outer.forEach((sw, si) => {
+				const box = leg.boxes[si];
+				worstOffBoard = Math.max(worstOffBoard, offBoardBy(box, widthIn, depthIn));
+				if (!m.flies) {
+					for (const o of scene.nearStart(box, keepOutWithin)) {
+						if (o.member) continue; // the unit moves together; its pieces do not block each other
+						const d = signedDistance(sw, o.start);
+						const prev = minToOther.get(o);
+						if (prev === undefined || d < prev) minToOther.set(o, d);
+					}
+				}
+				const inner = leg.inner[si];
+				const innerBox = boxOf(inner.pts, inner.r);
+				for (const t of scene.terrainNear(innerBox)) {
+					if (t.kind === 'impassable' && (!m.flies || !profile.fliersCrossImpassable)) {
+						if (!impassable.has(t.id) && meetsRegion(inner, t, innerBox)) impassable.set(t.id, t);
+					} else if (t.kind === 'ruin' && !m.flies && !wallPassers.has(m.src.class)) {
+						if (!walled.has(t.id) && wallMet(inner, t, innerBox)) walled.set(t.id, t);
+					} else if (t.kind === 'block') {
+						if (!m.flies && !climbers.has(m.src.class) && !blocked.has(t.id) && meetsRegion(inner, t, innerBox)) blocked.set(t.id, t);
+						if (!climbs) continue;
+						if (leg.step.kind === 'move') {
+							{
+								for (const [a, b] of touchIntervals(scene.inner(m, leg.step.from), leg.step.dx, leg.step.dy, t)) {
+									touches.push({ from: li + a, to: li + b, heightIn: t.heightIn });
+								}
+							}
+						} else if (meetsRegion(inner, t, innerBox)) {
+							// a turn touching a block: treat the whole turn as on it (conservative)
+							touches.push({ from: li, to: li + 1, heightIn: t.heightIn });
+						}
+					}
+				}
+			});
+		});
+
+		const horizontal = horizontalIn(steps);
+		const pivots = pivotIn(steps, m.local.rMaxIn, m.local.round, profile);
+		const climb = climbs ? climbIn(touches, legs.length) : 0;
+		const cost = horizontal + pivots + climb;
+		const allowance = allowanceIn(m);
+		reports[m.id] = { cost, allowance, findings: [] };
+
+		if (cost > allowance + eps) {
+			add(
+				finding(
+					'over-allowance',
+					[m.id],
+					cost,
+					allowance,
+					kind === 'hold'
+						? `${m.id} moves ${inches(cost)} in during a hold; a holding unit stays put`
+						: `${m.id}'s path costs ${inches(cost)} in (${inches(horizontal)} across, ${inches(pivots)} turning, ${inches(climb)} climbing); it may move ${limitText(allowance)} in`
+				)
+			);
+		}
+		if (kind === 'hold') continue;
+
+		// pieces met on the way, in request order
+		const others = [...minToOther.entries()].sort((a, b) => a[0].idx - b[0].idx);
+		for (const [o, d] of others) {
+			if (o.side !== m.side && d < -eps) {
+				add(finding('through-enemy', [m.id, o.id], d, 0, `${m.id} passes through enemy ${o.id} (overlap ${inches(-d)} in); no piece may move through an enemy`));
+			}
+		}
+		if (kind === 'move' || kind === 'dash') {
+			for (const [o, d] of others) {
+				if (o.side !== m.side && d <= keepOutWithin) {
+					add(
+						finding(
+							'enters-keep-out',
+							[m.id, o.id],
+							d,
+							profile.keepOut,
+							`${m.id} passes ${inches(d)} in from enemy ${o.id}; during a ${kind} it must stay more than ${limitText(profile.keepOut)} in away`
+						)
+					);
+				}
+			}
+		}
+		if (m.bulky) {
+			for (const [o, d] of others) {
+				if (o.bulky && d < -eps) {
+					add(
+						finding(
+							'bulky-through-bulky',
+							[m.id, o.id],
+							d,
+							0,
+							`${m.id} passes through ${o.id} (overlap ${inches(-d)} in); bulky pieces may not pass through each other`
+						)
+					);
+				}
+			}
+		}
+		for (const t of walled.values()) {
+			add(
+				finding('wall-blocked', [m.id], 0, 0, `${m.id} crosses a wall of ${t.id}; only ${classList(profile.wallPassers)} pass through ruin walls`, {
+					terrain: t.id
+				})
+			);
+		}
+		for (const t of blocked.values()) {
+			add(
+				finding('climb-blocked', [m.id], 0, 0, `${m.id} runs into block ${t.id}; only ${classList(profile.climbers)} may climb or cross blocks`, {
+					terrain: t.id
+				})
+			);
+		}
+		for (const t of impassable.values()) {
+			add(finding('impassable', [m.id], 0, 0, `${m.id}'s path enters impassable terrain ${t.id}`, { terrain: t.id }));
+		}
+
+		// ---- End of the path (and of an unmoved piece of the unit)
+		worstOffBoard = Math.max(worstOffBoard, offBoardBy(m.endBox, widthIn, depthIn));
+		if (worstOffBoard > eps) {
+			add(finding('off-board', [m.id], worstOffBoard, 0, `${m.id} goes ${inches(worstOffBoard)} in off the table; its footprint must stay on the board`));
+		}
+		for (const o of scene.nearEnd(m.endBox, keepOutWithin)) {
+			if (o === m) continue;
+			const d = signedDistance(m.end, o.end);
+			// a pair of the unit's own pieces is reported once, under the one that moved (or the first)
+			const reportHere = !o.member || (m.moved && (!o.moved || m.idx < o.idx)) || (!m.moved && !o.moved && m.idx < o.idx);
+			if (d < -eps && reportHere) {
+				add(finding('ends-overlapping', [m.id, o.id], d, 0, `${m.id} ends overlapping ${o.id} by ${inches(-d)} in; pieces may not end on one another`));
+			}
+			if (o.side !== m.side && d <= keepOutWithin) {
+				add(
+					finding(
+						'ends-in-keep-out',
+						[m.id, o.id],
+						d,
+						profile.keepOut,
+						`${m.id} ends ${inches(d)} in from enemy ${o.id}; it must end more than ${limitText(profile.keepOut)} in away`
+					)
+				);
+			}
+		}
+		const endInner = scene.inner(m, m.endPose);
+		const endInnerBox = boxOf(endInner.pts, endInner.r);
+		for (const t of scene.terrainNear(endInnerBox)) {
+			const floor = t.kind === 'block' || (t.kind === 'ruin' && profile.ruinFloorOverhang);
+			if (floor && meetsRegion(endInner, t, endInnerBox)) {
+				const by = overhangOf(endInner, m.end, t);
+				if (by > 0) {
+					const what = t.kind === 'block' ? `block ${t.id}` : `the floor of ruin ${t.id}`;
+					add(
+						finding('overhang', [m.id], by, 0, `${m.id} overhangs ${what} by ${inches(by)} in; a piece on it must stand wholly within its outline`, {
+							terrain: t.id
+						})
+					);
+				}
+			}
+			if (t.kind === 'impassable' && !impassable.has(t.id) && meetsRegion(endInner, t, endInnerBox)) {
+				add(finding('impassable', [m.id], distanceToRegion(m.end, t), 0, `${m.id} ends on impassable terrain ${t.id}`, { terrain: t.id }));
+			}
+		}
+	}
+
+	if (kind !== 'hold') {
+		unitFindings.push(
+			...spacingFindings(
+				members.map((m) => m.id),
+				members.map((m) => m.end),
+				profile
+			)
+		);
+	}
+
+	const findings: Finding[] = [];
+	for (const f of unitFindings.filter((f) => f.code !== 'spacing')) findings.push(f);
+	for (const m of members) {
+		const list = perPiece.get(m.id)!;
+		reports[m.id].findings = list;
+		findings.push(...list);
+	}
+	for (const f of unitFindings.filter((f) => f.code === 'spacing')) findings.push(f);
+
+	return {
+		verdict: findings.some((f) => f.severity === 'error') ? 'illegal' : 'legal',
+		pieces: reports,
+		findings,
+		summaries: { objectives: objectiveSummaries(scene), rings: ringSummaries(scene) }
+	};
+}
+
+/** The closest member–enemy pair at the start, for the withdraw warning. */
+function nearestEnemy(scene: Scene, members: ScenePiece[]): { d: number; a: ScenePiece; b: ScenePiece } | null {
+	let best: { d: number; a: ScenePiece; b: ScenePiece } | null = null;
+	for (const m of members) {
+		for (const o of scene.pieces) {
+			if (o.side === m.side) continue;
+			const b = m.startBox;
+			const ob = o.startBox;
+			// boxes bound the distance from below: skip pairs that cannot beat the best
+			const gap = Math.hypot(Math.max(0, ob.minX - b.maxX, b.minX - ob.maxX), Math.max(0, ob.minY - b.maxY, b.minY - ob.maxY));
+			if (best && gap >= best.d) continue;
+			const d = signedDistance(m.start, o.start);
+			if (!best || d < best.d) best = { d, a: m, b: o };
+		}
+	}
+	return best;
+}
