@@ -6,7 +6,7 @@ const baseURL = process.env.TEST_BASE_URL ?? 'http://127.0.0.1:3100';
 
 export default defineConfig({
 	testDir: 'tests/e2e',
-	outputDir: 'test-results/e2e',
+	outputDir: process.env.PW_OUTPUT_DIR ?? 'test-results/e2e',
 	fullyParallel: false,
 	workers: 1,
 	retries: 0,

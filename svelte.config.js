@@ -5,7 +5,9 @@ import { vitePreprocess } from '@sveltejs/vite-plugin-svelte';
 const config = {
 	preprocess: vitePreprocess(),
 	kit: {
-		adapter: adapter({ out: 'build' }),
+		// The test command builds into its own folders so that it can run beside `npm start`.
+		adapter: adapter({ out: process.env.BUILD_DIR ?? 'build' }),
+		outDir: process.env.SVELTEKIT_OUT_DIR ?? '.svelte-kit',
 		csrf: { trustedOrigins: [] },
 		// Only our own origin may serve scripts, styles, fonts and frames; nobody may frame us.
 		csp: {

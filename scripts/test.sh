@@ -5,14 +5,19 @@
 source "$(dirname "$0")/lib.sh"
 
 export NODE_ENV=production
-export HOST=127.0.0.1 PORT="${TEST_PORT:-3100}"
+# TEST_SLOT=N (0-9) gives a run its own ports, database and store, so that several runs can
+# go on side by side on one machine.
+SLOT="${TEST_SLOT:-0}"
+case "$SLOT" in [0-9]) ;; *) die "TEST_SLOT must be 0-9" ;; esac
+SUFFIX=""; [ "$SLOT" = 0 ] || SUFFIX="_$SLOT"
+export HOST=127.0.0.1 PORT="$((3100 + SLOT))"
 export ORIGIN="http://127.0.0.1:$PORT" TEST_BASE_URL="http://127.0.0.1:$PORT"
-export DATABASE_URL="${TEST_DATABASE_URL:-postgres://postgres@127.0.0.1:$PGPORT/inchwarden_test}"
-export SMTP_HOST=127.0.0.1 SMTP_PORT="${TEST_SMTP_PORT:-2526}"
-export FAKE_SMTP_API="http://127.0.0.1:${TEST_SMTP_API_PORT:-2581}"
-export S3_ENDPOINT="http://127.0.0.1:${TEST_S3_PORT:-4570}" S3_BUCKET=inchwarden-test S3_REGION=us-east-1
+export DATABASE_URL="${TEST_DATABASE_URL:-postgres://postgres@127.0.0.1:$PGPORT/inchwarden_test$SUFFIX}"
+export SMTP_HOST=127.0.0.1 SMTP_PORT="$((2526 + SLOT))"
+export FAKE_SMTP_API="http://127.0.0.1:$((2581 + SLOT))"
+export S3_ENDPOINT="http://127.0.0.1:$((4570 + SLOT))" S3_BUCKET=inchwarden-test S3_REGION=us-east-1
 export S3_FORCE_PATH_STYLE=true S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER
-export FAKE_S3_DIR="$DATA/s3-test"
+export FAKE_S3_DIR="$DATA/s3-test$SUFFIX" PW_OUTPUT_DIR="test-results/e2e$SUFFIX"
 # The test server trusts x-forwarded-for so tests can act as distinct client addresses.
 export ADDRESS_HEADER=x-forwarded-for XFF_DEPTH=1
 export CHROMIUM_PATH="${CHROMIUM_PATH:-/usr/bin/chromium}"
@@ -36,8 +41,9 @@ stage() { local name="$1"; shift; log "── $name"; "$@" || FAILED+=("$name");
 
 stage "svelte-check" bash -c 'node_modules/.bin/svelte-kit sync && node_modules/.bin/svelte-check --tsconfig ./tsconfig.json --output human --threshold error'
 log "building"
+export BUILD_DIR="$DATA/build-test$SUFFIX" SVELTEKIT_OUT_DIR="$DATA/kit-test$SUFFIX"
 node_modules/.bin/vite build --logLevel warn
-start_bg app-test node build
+start_bg "app-test$SUFFIX" node "$BUILD_DIR"
 wait_for_port "$PORT" "the app"
 
 stage "vitest" env NODE_OPTIONS='--import tsx' node_modules/.bin/vitest run "$@"
