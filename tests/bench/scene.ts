@@ -192,7 +192,7 @@ export function makeTable(opts: SceneOptions): Table {
 		if (t.kind === 'block' || t.kind === 'impassable') obstacleDiscs.push(d);
 		if (t.kind === 'ruin') {
 			// Walls as chains of small discs, so pieces may stand on the ruin floor.
-			for (const w of t.walls) {
+			for (const w of t.walls ?? []) {
 				for (let k = 0; k + 1 < w.length; k++) {
 					const [a, b] = [w[k], w[k + 1]];
 					const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
