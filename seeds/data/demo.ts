@@ -19,21 +19,8 @@ export const DEMO_PEOPLE: DemoPerson[] = [
 
 export const DEMO_CLUB = { name: 'Fennmoor Tape & Terrain Club', town: 'Fennmoor' };
 
-/** A unit as rosters keep it: every piece of a unit shares class, allowance and footprint. */
-export interface DemoUnit {
-	name: string;
-	class: 'foot' | 'beast' | 'swarm' | 'mounted' | 'vehicle' | 'monster';
-	flies: boolean;
-	allowanceIn: number;
-	footprint:
-		| { shape: 'round'; diameterMm: number }
-		| { shape: 'oval'; lengthMm: number; widthMm: number }
-		| { shape: 'hull'; points: [number, number][] };
-	pieces: number;
-	value: number;
-	ring?: { radiusIn: number; label: string };
-	points: number;
-}
+/** A unit as rosters keep it (the shared schema in src/lib/schemas/roster.ts checks these). */
+export type DemoUnit = import('../../src/lib/schemas/roster').RosterInput['units'][number];
 
 export const DEMO_FORCES: { owner: string; name: string; force: string; units: DemoUnit[] }[] = [
 	{
@@ -41,7 +28,10 @@ export const DEMO_FORCES: { owner: string; name: string; force: string; units: D
 		name: 'Copperline first muster',
 		force: 'The Copperline Compact',
 		units: [
-			{ name: 'Lamplighter Warband', class: 'foot', flies: false, allowanceIn: 6, footprint: { shape: 'round', diameterMm: 32 }, pieces: 10, value: 1, points: 100 },
+			{
+				name: 'Lamplighter Warband', class: 'foot', flies: false, allowanceIn: 6, footprint: { shape: 'round', diameterMm: 32 }, pieces: 10, value: 1, points: 100,
+				leader: { name: 'Lampwright Corin', class: 'foot', flies: false, allowanceIn: 6, footprint: { shape: 'round', diameterMm: 40 }, pieces: 1, value: 1, ring: { radiusIn: 6, label: 'Kindled resolve' }, points: 45 }
+			},
 			{ name: 'Signal Mast Crew', class: 'foot', flies: false, allowanceIn: 5, footprint: { shape: 'round', diameterMm: 40 }, pieces: 3, value: 1, ring: { radiusIn: 6, label: 'Steady signal' }, points: 85 },
 			{ name: 'Brass Strider', class: 'vehicle', flies: false, allowanceIn: 10, footprint: { shape: 'hull', points: [[-2.5, -1.5], [2.5, -1.5], [2.5, 1.5], [-2.5, 1.5]] }, pieces: 1, value: 0, points: 160 },
 			{ name: 'Kestrel Riders', class: 'mounted', flies: false, allowanceIn: 10, footprint: { shape: 'oval', lengthMm: 75, widthMm: 42 }, pieces: 3, value: 1, points: 95 }
