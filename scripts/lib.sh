@@ -127,6 +127,16 @@ start_fake_s3() {
 	wait_for_port "$port" "the fake S3 store"
 }
 
+start_fake_payments() {
+	local port
+	port="$(node -e "console.log(new URL(process.env.STRIPE_API_BASE).port)")"
+	if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then
+		die "port $port is taken: is another run of the fake payment provider up?"
+	fi
+	start_bg "fake-payments-$port" node_modules/.bin/tsx scripts/fake-payments.ts
+	wait_for_port "$port" "the fake payment provider"
+}
+
 cleanup() {
 	local pid
 	for pid in "${STARTED_PIDS[@]:-}"; do

@@ -20,6 +20,8 @@ ensure_deps
 pg_up
 ensure_database inchwarden
 start_fake_smtp
+export STRIPE_API_BASE="${STRIPE_API_BASE:-http://127.0.0.1:12111}" APP_WEBHOOK_URL="${APP_WEBHOOK_URL:-$ORIGIN/api/v1/payments/webhook}"
+if [ "${STRIPE_API_BASE#http://127.0.0.1}" != "$STRIPE_API_BASE" ]; then start_fake_payments; fi
 if [ "${S3_ENDPOINT#http://127.0.0.1}" != "$S3_ENDPOINT" ]; then start_fake_s3; fi
 
 log "migrating"

@@ -33,6 +33,8 @@ recreate_database "${DATABASE_URL##*/}"
 rm -rf "$FAKE_S3_DIR"
 start_fake_smtp
 start_fake_s3
+export STRIPE_API_BASE="http://127.0.0.1:$((12111 + SLOT))" APP_WEBHOOK_URL="$ORIGIN/api/v1/payments/webhook"
+start_fake_payments
 knex_cli migrate:latest >/dev/null
 node_modules/.bin/tsx scripts/seed-demo.ts
 
