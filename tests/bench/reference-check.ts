@@ -496,7 +496,7 @@ interface Placed {
 	inner: Shape;
 	start: Geom;
 	end: Geom; // after the move: a mover at its end, everything else where it stands
-	endInner: Geom;
+	endInner: Geom; // members only: the footprint shrunk by ε where it ends
 	plan: PathPlan | null;
 }
 
@@ -507,9 +507,20 @@ export function referenceCheck(req: RefRequest): RefReport {
 	const { move, board } = req;
 	const kind = move.kind;
 
+	// Footprints repeat across a table; their local outlines are worked out once per check.
+	const shapes = new Map<string, { outer: Shape; inner: Shape }>();
+	const shapesOf = (fp: Footprint) => {
+		const key = JSON.stringify(fp);
+		let s = shapes.get(key);
+		if (!s) {
+			const outer = outerShape(fp);
+			s = { outer, inner: innerShape(outer, eps) };
+			shapes.set(key, s);
+		}
+		return s;
+	};
 	const all: Placed[] = req.pieces.map((piece) => {
-		const outer = outerShape(piece.footprint);
-		const inner = innerShape(outer, eps);
+		const { outer, inner } = shapesOf(piece.footprint);
 		const unit = piece.leaderOf ?? piece.unit;
 		const member = unit === move.unit;
 		const path = member ? move.paths?.[piece.id] : undefined;
@@ -518,7 +529,7 @@ export function referenceCheck(req: RefRequest): RefReport {
 		const start = shapeAt(outer, piece.at.x, piece.at.y, f);
 		const endPose = plan ? plan.end : { x: piece.at.x, y: piece.at.y, facing: f };
 		const end = plan ? shapeAt(outer, endPose.x, endPose.y, endPose.facing) : start;
-		const endInner = shapeAt(inner, endPose.x, endPose.y, endPose.facing);
+		const endInner = member ? shapeAt(inner, endPose.x, endPose.y, endPose.facing) : null;
 		return { piece, unit, member, outer, inner, start, end, endInner, plan };
 	});
 	const members = all.filter((p) => p.member);
@@ -565,10 +576,24 @@ export function referenceCheck(req: RefRequest): RefReport {
 		);
 	}
 	if (!contact && kind === 'withdraw') {
-		// The nearest pair, found by widening the search until some pair is within it.
-		let nearest = null;
-		const anyEnemy = all.some((p) => p.piece.side !== members[0]?.piece.side);
-		for (let limit = 2 * keepOutWithin; anyEnemy && !nearest; limit *= 2) nearest = closest(pairsWithin(limit));
+		// The nearest pair: candidates in order of a lower bound (centre distance less both
+		// farthest radii), measured exactly until the bound passes the best found.
+		let nearest: { a: Placed; b: Placed; d: number } | null = null;
+		const candidates = members
+			.flatMap((a) => all.filter((b) => b.piece.side !== a.piece.side).map((b) => ({ a, b })))
+			.map((c) => ({
+				...c,
+				bound:
+					Math.hypot(c.a.piece.at.x - c.b.piece.at.x, c.a.piece.at.y - c.b.piece.at.y) -
+					farthestRadius(c.a.piece.footprint) -
+					farthestRadius(c.b.piece.footprint)
+			}))
+			.sort((x, y) => x.bound - y.bound);
+		for (const c of candidates) {
+			if (nearest && c.bound > nearest.d) break;
+			const d = DistanceOp.distance(c.a.start, c.b.start);
+			if (!nearest || d < nearest.d) nearest = { a: c.a, b: c.b, d };
+		}
 		unitFindings.push(
 			finding(
 				'not-in-contact',

@@ -1,6 +1,6 @@
 // Seeded random tables and moves for the bench and the agreement test: a full 300-piece,
 // 20-terrain scene, a smaller one, and proposed moves with a mix of legal and illegal outcomes.
-import type { Footprint, MoveKind, PieceClass, PieceIn, Pose, RefRequest, TerrainIn, Xy } from './reference-check.ts';
+import type { Footprint, MoveKind, PieceClass, PieceIn, Pose, RefRequest, TerrainIn, Xy } from './reference-check';
 
 /** Small fast generator (mulberry32): the same seed always gives the same table. */
 export function rng(seed: number): () => number {
