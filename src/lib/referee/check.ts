@@ -143,7 +143,9 @@ export function runCheck(request: CheckRequest): CheckReport {
 				worstOffBoard = Math.max(worstOffBoard, offBoardBy(box, widthIn, depthIn));
 				if (!m.flies) {
 					for (const o of scene.nearStart(box, keepOutWithin)) {
-						if (o.member) continue; // the unit moves together; its pieces do not block each other
+						// unit-mates that also move are not where they started, so they do not block each other;
+						// a unit-mate that stays put is an obstacle like any friendly piece
+						if (o.member && o.moved) continue;
 						const d = signedDistance(sw, o.start);
 						const prev = minToOther.get(o);
 						if (prev === undefined || d < prev) minToOther.set(o, d);
