@@ -43,8 +43,9 @@ describe('password hashing', () => {
 		const real = await median(() => verifyPassword(h, 'a wrong password'));
 		const burned = await median(() => burnVerify('a wrong password'));
 		expect(await burnVerify('a real password')).toBe(false);
-		// Same parameters, so the same cost; the wide band only absorbs scheduling noise.
-		expect(burned).toBeGreaterThan(real * 0.5);
-		expect(burned).toBeLessThan(real * 2);
+		// Same parameters, so the same cost; the wide band only absorbs noise from a busy
+		// machine. A shortcut that skipped the verify would take well under a millisecond.
+		expect(burned).toBeGreaterThan(real * 0.33);
+		expect(burned).toBeLessThan(real * 3);
 	});
 });
