@@ -1,11 +1,11 @@
 // The check itself: applies every rule of the profile to a proposed move and assembles the report
 // (verdict, per-piece cost and findings, unit findings, summaries). Pure and deterministic.
 import type { CheckReport, CheckRequest, Finding, PieceReport } from '../schemas/check';
-import { boxOf, signedDistance, type Box, type Rounded } from './convex';
+import { boxOf, pointSegmentDistance, signedDistance, type Box, type Rounded } from './convex';
 import { classList, inches, limitText } from './messages';
 import { climbIn, horizontalIn, pathSteps, pivotIn, type PathStep, type Touch } from './path-cost';
 import { resolveProfile } from './profile';
-import { Scene, type ScenePiece } from './scene';
+import { reachGap, Scene, type ScenePiece } from './scene';
 import { spacingFindings } from './spacing';
 import { objectiveSummaries, ringSummaries } from './summaries';
 import { pivotSweep, translationSweep } from './sweep';
@@ -89,6 +89,7 @@ export function runCheck(request: CheckRequest): CheckReport {
 	for (const m of members) {
 		for (const o of scene.nearStart(m.startBox, keepOutWithin)) {
 			if (o.side === m.side) continue;
+			if (reachGap(m, m.startPose.x, m.startPose.y, o, o.startPose.x, o.startPose.y) > keepOutWithin) continue;
 			const d = signedDistance(m.start, o.start);
 			if (d <= keepOutWithin && (!closest || d < closest.d)) closest = { d, a: m, b: o };
 		}
@@ -142,7 +143,15 @@ export function runCheck(request: CheckRequest): CheckReport {
 				const box = leg.boxes[si];
 				worstOffBoard = Math.max(worstOffBoard, offBoardBy(box, widthIn, depthIn));
 				if (!m.flies) {
+					const f = leg.step.from;
+					const [dx, dy] = leg.step.kind === 'move' ? [leg.step.dx, leg.step.dy] : [0, 0];
 					for (const o of scene.nearStart(box, keepOutWithin)) {
+						// only enemies (keep-out, through) and bulky pairs matter on the way
+						const enemy = o.side !== m.side;
+						if (!enemy && !(m.bulky && o.bulky)) continue;
+						const need = enemy ? keepOutWithin : 0;
+						const lb = pointSegmentDistance(o.startPose.x, o.startPose.y, f.x, f.y, f.x + dx, f.y + dy) - m.reachIn - o.reachIn;
+						if (lb > need) continue;
 						// unit-mates that also move are not where they started, so they do not block each other;
 						// a unit-mate that stays put is an obstacle like any friendly piece
 						if (o.member && o.moved) continue;
@@ -260,6 +269,8 @@ export function runCheck(request: CheckRequest): CheckReport {
 		}
 		for (const o of scene.nearEnd(m.endBox, keepOutWithin)) {
 			if (o === m) continue;
+			const lb = reachGap(m, m.endPose.x, m.endPose.y, o, o.endPose.x, o.endPose.y);
+			if (lb > (o.side !== m.side ? keepOutWithin : 0)) continue;
 			const d = signedDistance(m.end, o.end);
 			// a pair of the unit's own pieces is reported once, under the one that moved (or the first)
 			const reportHere = !o.member || (m.moved && (!o.moved || m.idx < o.idx)) || (!m.moved && !o.moved && m.idx < o.idx);
@@ -304,7 +315,8 @@ export function runCheck(request: CheckRequest): CheckReport {
 			...spacingFindings(
 				members.map((m) => m.id),
 				members.map((m) => m.end),
-				profile
+				profile,
+				members.map((m) => ({ x: m.endPose.x, y: m.endPose.y, outerIn: m.reachIn, innerIn: m.innerReachIn }))
 			)
 		);
 	}

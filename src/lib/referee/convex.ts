@@ -69,30 +69,51 @@ function bottomIndex(p: number[]): number {
 export function minkowskiSum(a: number[], b: number[], negB = false): number[] {
 	const n = a.length / 2;
 	const m = b.length / 2;
-	const bb = negB ? b.map((v) => -v) : b;
+	const sb = negB ? -1 : 1;
 	const ia = bottomIndex(a);
-	const ib = bottomIndex(bb);
-	const ax = (k: number) => a[2 * ((ia + k) % n)];
-	const ay = (k: number) => a[2 * ((ia + k) % n) + 1];
-	const bx = (k: number) => bb[2 * ((ib + k) % m)];
-	const by = (k: number) => bb[2 * ((ib + k) % m) + 1];
+	const ib = negB ? topIndex(b) : bottomIndex(b); // −B's lowest point is B's highest
 	const out: number[] = [];
 	let i = 0;
 	let j = 0;
+	let pa = ia;
+	let pb = ib;
 	while (i < n || j < m) {
-		out.push(ax(i) + bx(j), ay(i) + by(j));
-		const c = cross(ax(i + 1) - ax(i), ay(i + 1) - ay(i), bx(j + 1) - bx(j), by(j + 1) - by(j));
-		const stepA = c >= 0 && i < n;
-		const stepB = c <= 0 && j < m;
-		if (stepA) i++;
-		if (stepB) j++;
+		const qa = pa + 1 === n ? 0 : pa + 1;
+		const qb = pb + 1 === m ? 0 : pb + 1;
+		const ax0 = a[2 * pa];
+		const ay0 = a[2 * pa + 1];
+		const bx0 = sb * b[2 * pb];
+		const by0 = sb * b[2 * pb + 1];
+		out.push(ax0 + bx0, ay0 + by0);
+		const c = cross(a[2 * qa] - ax0, a[2 * qa + 1] - ay0, sb * b[2 * qb] - bx0, sb * b[2 * qb + 1] - by0);
+		let stepA = c >= 0 && i < n;
+		let stepB = c <= 0 && j < m;
 		if (!stepA && !stepB) {
 			// one polygon is exhausted; walk the other
-			if (i < n) i++;
-			else j++;
+			if (i < n) stepA = true;
+			else stepB = true;
+		}
+		if (stepA) {
+			i++;
+			pa = qa;
+		}
+		if (stepB) {
+			j++;
+			pb = qb;
 		}
 	}
 	return out;
+}
+
+/** Index of the highest (then rightmost) vertex: the lowest, leftmost one of the mirrored set. */
+function topIndex(p: number[]): number {
+	let best = 0;
+	for (let i = 1; i < p.length / 2; i++) {
+		const y = p[2 * i + 1];
+		const by = p[2 * best + 1];
+		if (y > by || (y === by && p[2 * i] > p[2 * best])) best = i;
+	}
+	return best;
 }
 
 /** Twice the signed area (positive for CCW). */
@@ -157,8 +178,42 @@ export function signedDistance(a: Rounded, b: Rounded): number {
 			);
 		}
 	}
+	// A point against a polygon (a round base against an oval or hull): no Minkowski sum needed.
+	if (na === 2) return signedDistancePointConvex(a.pts[0], a.pts[1], b.pts) - rr;
+	if (nb === 2) return signedDistancePointConvex(b.pts[0], b.pts[1], a.pts) - rr;
+	// A segment against a polygon that it does not meet: the least vertex–edge distance.
+	if (na === 4 && nb >= 6) {
+		const d = segmentPolygonGap(a.pts, b.pts);
+		if (d > 0) return d - rr;
+	} else if (nb === 4 && na >= 6) {
+		const d = segmentPolygonGap(b.pts, a.pts);
+		if (d > 0) return d - rr;
+	}
 	const m = minkowskiSum(a.pts, b.pts, true);
 	return signedDistancePointConvex(0, 0, m) - rr;
+}
+
+/** Distance between a segment and a convex CCW polygon, or 0 when they meet. */
+function segmentPolygonGap(seg: number[], p: number[]): number {
+	const [ax, ay, bx, by] = seg;
+	const n = p.length / 2;
+	let d = Infinity;
+	let insideA = true;
+	for (let i = 0, k = n - 1; i < n; k = i++) {
+		const x0 = p[2 * k];
+		const y0 = p[2 * k + 1];
+		const x1 = p[2 * i];
+		const y1 = p[2 * i + 1];
+		if (cross(x1 - x0, y1 - y0, ax - x0, ay - y0) < 0) insideA = false;
+		if (segmentsCross(ax, ay, bx, by, x0, y0, x1, y1)) return 0;
+		const e = Math.min(
+			pointSegmentDistance(ax, ay, x0, y0, x1, y1),
+			pointSegmentDistance(bx, by, x0, y0, x1, y1),
+			pointSegmentDistance(x1, y1, ax, ay, bx, by)
+		);
+		if (e < d) d = e;
+	}
+	return insideA && doubleArea(p) > 1e-18 ? 0 : d;
 }
 
 /** Even–odd point in polygon (outline as a flat ring, closing edge implied). */

@@ -2,29 +2,79 @@
 // that moves, and bounding-box indexes (flatbush) so each test only measures nearby things.
 import Flatbush from 'flatbush';
 import type { CheckRequest, PieceIn, Profile } from '../schemas/check';
-import { boxOf, boxesMeet, type Box, type Rounded } from './convex';
+import { boxesMeet, type Box, type Rounded } from './convex';
 import { localFootprint, place, type LocalFootprint } from './footprints';
 import { endPose, type PoseDeg } from './path-cost';
+import { mmToIn } from './profile';
 import { prepareTerrain, type PreparedTerrain } from './terrain';
 
-export interface ScenePiece {
-	idx: number;
-	src: PieceIn;
-	id: string;
-	side: string;
+/** Radius of a disk about the reference point that holds the footprint, without building it. */
+function reachOf(fp: PieceIn['footprint']): number {
+	if (fp.shape === 'round') return mmToIn(fp.diameterMm) / 2;
+	// an oval's polygon is grown by at most its chord error, far below this margin
+	if (fp.shape === 'oval') return mmToIn(Math.max(fp.lengthMm, fp.widthMm)) / 2 + 1e-3;
+	let r = 0;
+	for (const [x, y] of fp.points) r = Math.max(r, Math.hypot(x, y));
+	return r;
+}
+
+/** One piece of the table. Footprint shapes are built only when a test needs them. */
+export class ScenePiece {
+	readonly id: string;
+	readonly side: string;
 	/** the unit it moves and is spaced with: the joined unit for a leader */
-	unit: string;
-	member: boolean;
-	bulky: boolean;
-	flies: boolean;
-	local: LocalFootprint;
-	startPose: PoseDeg;
-	start: Rounded;
-	startBox: Box;
-	endPose: PoseDeg;
-	end: Rounded;
-	endBox: Box;
-	moved: boolean;
+	readonly unit: string;
+	readonly bulky: boolean;
+	readonly flies: boolean;
+	/** radius of a disk about the reference point that holds the footprint (for cheap pruning) */
+	readonly reachIn: number;
+	/** radius of a disk about the reference point inside the footprint (0 when unknown) */
+	readonly innerReachIn: number;
+	readonly startPose: PoseDeg;
+	readonly startBox: Box;
+	readonly endPose: PoseDeg;
+	readonly endBox: Box;
+	private _local: LocalFootprint | null = null;
+	private _start: Rounded | null = null;
+	private _end: Rounded | null = null;
+
+	constructor(
+		readonly idx: number,
+		readonly src: PieceIn,
+		readonly member: boolean,
+		readonly moved: boolean,
+		endPose: PoseDeg,
+		bulky: boolean,
+		private readonly toleranceIn: number
+	) {
+		this.id = src.id;
+		this.side = src.side;
+		this.unit = src.leaderOf ?? src.unit;
+		this.bulky = bulky;
+		this.flies = src.flies === true;
+		this.reachIn = reachOf(src.footprint);
+		const fp = src.footprint;
+		// the oval's polygon lies inside the curve by at most its chord error, far below 1e-3
+		this.innerReachIn = fp.shape === 'round' ? this.reachIn : fp.shape === 'oval' ? mmToIn(Math.min(fp.lengthMm, fp.widthMm)) / 2 - 1e-3 : 0;
+		this.startPose = { x: src.at.x, y: src.at.y, facingDeg: src.at.facing ?? 0 };
+		this.endPose = moved ? endPose : this.startPose;
+		const r = this.reachIn;
+		this.startBox = { minX: src.at.x - r, minY: src.at.y - r, maxX: src.at.x + r, maxY: src.at.y + r };
+		this.endBox = moved ? { minX: endPose.x - r, minY: endPose.y - r, maxX: endPose.x + r, maxY: endPose.y + r } : this.startBox;
+	}
+
+	get local(): LocalFootprint {
+		return (this._local ??= localFootprint(this.src.footprint, this.toleranceIn));
+	}
+	/** footprint at the start of the move */
+	get start(): Rounded {
+		return (this._start ??= place(this.local.outer, this.startPose.x, this.startPose.y, this.startPose.facingDeg));
+	}
+	/** footprint after the move (the start, for a piece that does not move) */
+	get end(): Rounded {
+		if (!this.moved) return this.start;
+		return (this._end ??= place(this.local.outer, this.endPose.x, this.endPose.y, this.endPose.facingDeg));
+	}
 }
 
 export class Scene {
@@ -33,7 +83,6 @@ export class Scene {
 	readonly terrain: PreparedTerrain[];
 	private readonly pieceIndex: Flatbush;
 	private readonly terrainIndex: Flatbush | null;
-	private innerCache = new Map<string, Rounded>();
 
 	constructor(
 		readonly request: CheckRequest,
@@ -44,34 +93,11 @@ export class Scene {
 		const paths = request.move.paths ?? {};
 		const bulky = new Set<string>(profile.bulky);
 		this.pieces = request.pieces.map((src, idx) => {
-			const local = localFootprint(src.footprint, eps);
-			const startPose: PoseDeg = { x: src.at.x, y: src.at.y, facingDeg: src.at.facing ?? 0 };
-			const start = place(local.outer, startPose.x, startPose.y, startPose.facingDeg);
-			const unit = src.leaderOf ?? src.unit;
-			const member = unit === unitId;
+			const member = (src.leaderOf ?? src.unit) === unitId;
 			const path = member ? paths[src.id] : undefined;
 			const moved = !!path && path.length > 0;
-			const ep = moved ? endPose(src.at, path) : startPose;
-			const end = moved ? place(local.outer, ep.x, ep.y, ep.facingDeg) : start;
-			const startBox = boxOf(start.pts, start.r);
-			return {
-				idx,
-				src,
-				id: src.id,
-				side: src.side,
-				unit,
-				member,
-				bulky: bulky.has(src.class),
-				flies: src.flies === true,
-				local,
-				startPose,
-				start,
-				startBox,
-				endPose: ep,
-				end,
-				endBox: moved ? boxOf(end.pts, end.r) : startBox,
-				moved
-			};
+			const ep = moved ? endPose(src.at, path) : { x: src.at.x, y: src.at.y, facingDeg: src.at.facing ?? 0 };
+			return new ScenePiece(idx, src, member, moved, ep, bulky.has(src.class), eps);
 		});
 		this.members = this.pieces.filter((p) => p.member);
 		this.pieceIndex = new Flatbush(this.pieces.length);
@@ -112,14 +138,13 @@ export class Scene {
 
 	/** A piece's footprint shrunk by ε at a pose (terrain contact beyond ε is what counts). */
 	inner(p: ScenePiece, pose: PoseDeg): Rounded {
-		const key = `${p.idx}|${pose.x}|${pose.y}|${pose.facingDeg}`;
-		let s = this.innerCache.get(key);
-		if (!s) {
-			s = place(p.local.inner, pose.x, pose.y, pose.facingDeg);
-			this.innerCache.set(key, s);
-		}
-		return s;
+		return place(p.local.inner, pose.x, pose.y, pose.facingDeg);
 	}
+}
+
+/** Lower bound on the edge-to-edge distance of two pieces at given centres, from their reach. */
+export function reachGap(a: ScenePiece, ax: number, ay: number, b: ScenePiece, bx: number, by: number): number {
+	return Math.hypot(ax - bx, ay - by) - a.reachIn - b.reachIn;
 }
 
 function unite(a: Box, b: Box): Box {

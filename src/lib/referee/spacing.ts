@@ -49,34 +49,71 @@ export function spacingGroups(dist: number[][], withinIn: number): number[][] {
 	return groups;
 }
 
-/** Spacing findings for a unit whose pieces (ids, final footprints) are given in request order. */
-export function spacingFindings(ids: string[], shapes: Rounded[], profile: Profile): Finding[] {
+/** Centre and bounding / inscribed disk radii of a footprint, to settle most pairs cheaply. */
+export interface Disk {
+	x: number;
+	y: number;
+	outerIn: number;
+	innerIn: number;
+}
+
+/**
+ * Spacing findings for a unit whose pieces (ids, final footprints) are given in request order.
+ * With `disks`, a pair is measured exactly only when its disks cannot settle the question.
+ */
+export function spacingFindings(ids: string[], shapes: Rounded[], profile: Profile, disks?: Disk[]): Finding[] {
 	const n = ids.length;
 	if (n < 2) return []; // units of one piece are exempt
 	const within = profile.spacing + profile.tolerance;
 	const k = neighboursNeeded(n, profile);
-	const dist = distanceMatrix(shapes);
+	// NaN marks "not measured": in range for sure (−∞ side) or out of range for sure (+∞ side)
+	const dist = shapes.map(() => new Array<number>(n).fill(Infinity));
+	const sure = shapes.map(() => new Array<boolean>(n).fill(false));
+	for (let i = 0; i < n; i++) {
+		for (let j = i + 1; j < n; j++) {
+			let v: number;
+			if (disks) {
+				const c = Math.hypot(disks[i].x - disks[j].x, disks[i].y - disks[j].y);
+				if (c - disks[i].outerIn - disks[j].outerIn > within) {
+					v = Infinity; // surely apart; measured later only if the figure is reported
+					sure[i][j] = sure[j][i] = true;
+				} else if (c - disks[i].innerIn - disks[j].innerIn <= within) {
+					v = -Infinity; // surely in range
+					sure[i][j] = sure[j][i] = true;
+				} else v = signedDistance(shapes[i], shapes[j]);
+			} else v = signedDistance(shapes[i], shapes[j]);
+			dist[i][j] = v;
+			dist[j][i] = v;
+		}
+	}
+	const exact = (i: number, j: number) => {
+		if (sure[i][j]) {
+			dist[i][j] = dist[j][i] = signedDistance(shapes[i], shapes[j]);
+			sure[i][j] = sure[j][i] = false;
+		}
+		return dist[i][j];
+	};
 	const out: Finding[] = [];
 	for (let i = 0; i < n; i++) {
-		const sorted = dist[i].filter((_, j) => j !== i).sort((a, b) => a - b);
+		const inRange = dist[i].filter((v, j) => j !== i && v <= within).length;
+		if (inRange >= k) continue;
+		const sorted = dist[i].map((_, j) => (j === i ? Infinity : exact(i, j))).sort((a, b) => a - b);
 		const kth = sorted[k - 1];
-		if (kth > within) {
-			const mate = k === 1 ? 'its nearest unit-mate' : `its ${ordinal(k)} unit-mate`;
-			out.push({
-				code: 'spacing',
-				severity: 'error',
-				pieces: [ids[i]],
-				measured: kth,
-				limit: profile.spacing,
-				message: `${ids[i]} is ${inches(kth)} in from ${mate}; it must be within ${limitText(profile.spacing)} in of ${countWord(k)}`
-			});
-		}
+		const mate = k === 1 ? 'its nearest unit-mate' : `its ${ordinal(k)} unit-mate`;
+		out.push({
+			code: 'spacing',
+			severity: 'error',
+			pieces: [ids[i]],
+			measured: kth,
+			limit: profile.spacing,
+			message: `${ids[i]} is ${inches(kth)} in from ${mate}; it must be within ${limitText(profile.spacing)} in of ${countWord(k)}`
+		});
 	}
 	if (profile.spacingConnected) {
 		const groups = spacingGroups(dist, within);
 		for (const g of groups.slice(1)) {
 			let gap = Infinity;
-			for (const i of g) for (let j = 0; j < n; j++) if (!g.includes(j) && dist[i][j] < gap) gap = dist[i][j];
+			for (const i of g) for (let j = 0; j < n; j++) if (!g.includes(j) && exact(i, j) < gap) gap = dist[i][j];
 			const names = g.map((i) => ids[i]);
 			out.push({
 				code: 'spacing',

@@ -15,7 +15,9 @@ export function objectiveSummaries(scene: Scene): Summaries['objectives'] {
 	return (request.board.objectives ?? []).map((o) => {
 		// the marker is a round footprint of markerMm
 		const marker: Rounded = { pts: [o.x, o.y], r: mmToIn(profile.markerMm) / 2 };
-		const holders = scene.nearEnd(boxOf(marker.pts, marker.r), within).filter((p) => signedDistance(p.end, marker) <= within);
+		const holders = scene
+			.nearEnd(boxOf(marker.pts, marker.r), within)
+			.filter((p) => Math.hypot(p.endPose.x - o.x, p.endPose.y - o.y) - p.reachIn - marker.r <= within && signedDistance(p.end, marker) <= within);
 		const value: Record<string, number> = {};
 		for (const s of sides) value[s] = 0;
 		const units: string[] = [];
@@ -35,6 +37,9 @@ function covered(scene: Scene, source: ScenePiece, radiusIn: number, after: bool
 	const units: string[] = [];
 	for (const p of near) {
 		if (p.side !== source.side || units.includes(p.unit)) continue;
+		const sp = after ? source.endPose : source.startPose;
+		const pp = after ? p.endPose : p.startPose;
+		if (Math.hypot(sp.x - pp.x, sp.y - pp.y) - source.reachIn - p.reachIn > within) continue;
 		if (signedDistance(shape, after ? p.end : p.start) <= within) units.push(p.unit);
 	}
 	return units;

@@ -193,3 +193,14 @@ export const rosterPieces = (units: readonly Unit[]): number =>
 export function issueList(error: z.ZodError): { path: string[]; message: string }[] {
 	return error.issues.map((i) => ({ path: i.path.map(String), message: i.message }));
 }
+
+/** POST /api/v1/rosters/import: which stored upload, and whether to take only the good rows. */
+export const importRequestSchema = z.object({
+	fileId: z.uuid({ error: 'fileId must be the id of an uploaded file' }),
+	onlyGoodRows: z.boolean({ error: 'onlyGoodRows must be true or false' }).default(false),
+	name: z.string().max(L.nameChars).optional(),
+	force: z.string().max(L.forceChars).optional()
+});
+
+export const EXPORT_FORMATS = ['csv', 'json'] as const;
+export const exportFormatSchema = z.enum(EXPORT_FORMATS, { error: 'format must be csv or json' });
