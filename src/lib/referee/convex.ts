@@ -356,6 +356,21 @@ export function lineRoundedConvex(vx: number, vy: number, k: number[], r: number
 	if (n >= 3 && doubleArea(k) > 1e-18) {
 		const c = lineConvex(vx, vy, k);
 		if (c) iv = widen(iv, c[0], c[1]);
+	} else if (r === 0 && n >= 2) {
+		// a flat set: the line meets it in a point (a crossing, which still matters) or along it
+		const h = convexHull(k);
+		if (h.length === 4) {
+			const c = lineCapsule(vx, vy, h[0], h[1], h[2], h[3], 0);
+			if (c) iv = widen(iv, c[0], c[1]);
+			const ex = h[2] - h[0];
+			const ey = h[3] - h[1];
+			const den = cross(vx, vy, ex, ey);
+			if (den !== 0) {
+				const t = cross(h[0], h[1], ex, ey) / den;
+				const u = cross(h[0], h[1], vx, vy) / den;
+				if (u >= 0 && u <= 1) iv = widen(iv, t, t);
+			}
+		}
 	}
 	if (r > 0) {
 		if (n === 1) {

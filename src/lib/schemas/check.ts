@@ -73,18 +73,44 @@ export type ProfileInput = z.input<typeof profileSchema>;
 // Request
 
 export const footprintSchema = z.discriminatedUnion('shape', [
-	z.object({ shape: z.literal('round'), diameterMm: z.number().gt(0).max(2000) }),
+	z.object({ shape: z.literal('round'), diameterMm: z.number().min(1).max(2000) }),
 	z.object({
 		shape: z.literal('oval'),
-		lengthMm: z.number().gt(0).max(2000),
-		widthMm: z.number().gt(0).max(2000)
+		lengthMm: z.number().min(1).max(2000),
+		widthMm: z.number().min(1).max(2000)
 	}),
 	z.object({
 		shape: z.literal('hull'),
 		// inches relative to `at`, before rotation by facing
-		points: z.array(z.tuple([z.number().min(-200).max(200), z.number().min(-200).max(200)])).min(3).max(LIMITS.hullPoints)
+		points: z
+			.array(z.tuple([z.number().min(-200).max(200), z.number().min(-200).max(200)]))
+			.min(3)
+			.max(LIMITS.hullPoints)
+			.refine((pts) => hullArea(pts) >= 0.01, 'a hull must enclose an area (at least 0.01 sq in)')
 	})
 ]);
+
+/** Area of the convex hull of the points (gift wrapping; hulls are small). */
+function hullArea(pts: [number, number][]): number {
+	const s = [...pts].sort((a, b) => a[0] - b[0] || a[1] - b[1]);
+	const turn = (o: number[], a: number[], b: number[]) => (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
+	const chain = (list: [number, number][]) => {
+		const h: [number, number][] = [];
+		for (const p of list) {
+			while (h.length >= 2 && turn(h[h.length - 2], h[h.length - 1], p) <= 0) h.pop();
+			h.push(p);
+		}
+		return h.slice(0, -1);
+	};
+	const hull = [...chain(s), ...chain([...s].reverse())];
+	let a = 0;
+	for (let i = 0; i < hull.length; i++) {
+		const [x0, y0] = hull[i];
+		const [x1, y1] = hull[(i + 1) % hull.length];
+		a += x0 * y1 - x1 * y0;
+	}
+	return Math.abs(a) / 2;
+}
 
 const facingDeg = z.number().min(-36_000).max(36_000);
 

@@ -99,9 +99,16 @@ function convexDistanceFrom(px: number, py: number, s: CSet, im: number): number
 	return best;
 }
 
+/** Signed distance from a point to the polygon part of a set (negative inside a ≥3-gon). */
+export function pointPolyDist(px: number, py: number, pts: number[]): number {
+	if (pts.length === 2) return Math.hypot(px - pts[0], py - pts[1]);
+	if (pts.length === 4) return pointSegmentDistance(px, py, pts[0], pts[1], pts[2], pts[3]);
+	return signedDistancePointConvex(px, py, pts);
+}
+
 /** How far the point is outside the set (negative inside). */
 export function pointSetClearance(px: number, py: number, s: CSet): number {
-	return pointPolyDist(px, py, s.pts) - s.R;
+	return clearanceBelow(px, py, s, Infinity);
 }
 
 function segmentsCross(ax: number, ay: number, bx: number, by: number, cx: number, cy: number, dx: number, dy: number): boolean {
