@@ -2,3 +2,4 @@
 export * from './swiss';
 export * from './tables';
 export * from './standings';
+export * from './csv';

@@ -24,33 +24,44 @@ export class PairingError extends Error {}
 const ATTEMPTS = 25;
 
 /** Broken hard rules of a proposed round, in words; empty when the round is fine. */
-export function pairingProblems(players: readonly SwissPlayer[], pairs: readonly Pair[]): string[] {
+export function pairingProblems(players: readonly SwissPlayer[], pairs: readonly Pair[], name: (id: string) => string = (id) => id): string[] {
 	const byId = new Map(players.map((p) => [p.id, p]));
 	const problems: string[] = [];
 	const seen = new Set<string>();
 	for (const { a, b } of pairs) {
 		for (const id of b === null ? [a] : [a, b]) {
-			if (!byId.has(id)) problems.push(`${id} is not in the event`);
-			if (seen.has(id)) problems.push(`${id} is paired twice`);
+			if (!byId.has(id)) problems.push(`${name(id)} is not in the event`);
+			if (seen.has(id)) problems.push(`${name(id)} is paired twice`);
 			seen.add(id);
 		}
-		if (b !== null && a === b) problems.push(`${a} is paired with themselves`);
+		if (b !== null && a === b) problems.push(`${name(a)} is paired with themselves`);
 		if (b !== null && (byId.get(a)?.opponents.includes(b) || byId.get(b)?.opponents.includes(a))) {
-			problems.push(`${a} and ${b} have met before`);
+			problems.push(`${name(a)} and ${name(b)} have met before`);
 		}
 	}
-	for (const p of players) if (!seen.has(p.id)) problems.push(`${p.id} is not paired`);
+	for (const p of players) if (!seen.has(p.id)) problems.push(`${name(p.id)} is not paired`);
 	const byes = pairs.filter((p) => p.b === null);
 	if (byes.length > (players.length % 2)) problems.push('more byes than an odd count needs');
 	for (const bye of byes) {
 		// A second bye is only acceptable when everyone has had one already.
-		if (byId.get(bye.a)?.hadBye && players.some((p) => !p.hadBye)) problems.push(`${bye.a} would have a second bye`);
+		if (byId.get(bye.a)?.hadBye && players.some((p) => !p.hadBye)) problems.push(`${name(bye.a)} would have a second bye`);
 	}
 	return problems;
 }
 
 /** Pairs for the next round, higher-scored pairs first; throws PairingError when none is valid. */
 export function pairRound(players: readonly SwissPlayer[], round: number): Pair[] {
+	const r = tryPairRound(players, round);
+	if (r.problems.length) throw new PairingError(`no valid pairing found: ${r.problems.join('; ')}`);
+	return r.pairs;
+}
+
+/**
+ * The package's best pairing and its problems. When no valid pairing turns up, the last attempt
+ * (or, if the package found none, the players in score order) is returned with its problems,
+ * so the organiser can mend it by hand instead of being stuck.
+ */
+export function tryPairRound(players: readonly SwissPlayer[], round: number): { pairs: Pair[]; problems: string[] } {
 	if (players.length < 2) throw new PairingError('at least two players are needed to pair a round');
 	const ids = new Set(players.map((p) => p.id));
 	// The package only consults the avoid list of the first player of each candidate pair, so
@@ -63,7 +74,7 @@ export function pairRound(players: readonly SwissPlayer[], round: number): Pair[
 			avoid.get(o)!.add(p.id);
 		}
 	}
-	let last: string[] = [];
+	let best: { pairs: Pair[]; problems: string[] } | null = null;
 	for (let attempt = 0; attempt < ATTEMPTS; attempt++) {
 		let matches: ReturnType<typeof Swiss>;
 		try {
@@ -73,17 +84,23 @@ export function pairRound(players: readonly SwissPlayer[], round: number): Pair[
 			);
 		} catch {
 			// The package throws when no two players may meet at all (its matching is empty).
-			last = ['no two players may meet without a rematch'];
 			continue;
 		}
 		const pairs: Pair[] = matches.map((m) => ({
 			a: String(m.player1),
 			b: m.player2 === null || m.player2 === undefined ? null : String(m.player2)
 		}));
-		last = pairingProblems(players, pairs);
-		if (last.length === 0) return orderPairs(players, pairs);
+		const problems = pairingProblems(players, pairs);
+		if (problems.length === 0) return { pairs: orderPairs(players, pairs), problems };
+		if (!best || problems.length < best.problems.length) best = { pairs, problems };
 	}
-	throw new PairingError(`no valid pairing found: ${last.join('; ')}`);
+	if (!best) {
+		const byScore = [...players].sort((x, y) => y.points - x.points || x.id.localeCompare(y.id));
+		const pairs: Pair[] = [];
+		for (let i = 0; i < byScore.length; i += 2) pairs.push({ a: byScore[i].id, b: byScore[i + 1]?.id ?? null });
+		best = { pairs, problems: pairingProblems(players, pairs) };
+	}
+	return { pairs: orderPairs(players, best.pairs), problems: best.problems };
 }
 
 /** Top pairs (most points together) first, the bye last; within a pair the higher score first. */

@@ -139,3 +139,16 @@ describe('pairing rules and adjustments', () => {
 		expect(assignTables([{ a: 'a', b: 'b' }])[0].layoutId).toBeNull();
 	});
 });
+
+describe('a round that cannot be paired cleanly', () => {
+	it('is still drafted, with its rematch named, so the organiser can mend it', async () => {
+		const { tryPairRound } = await import('$lib/pairings');
+		const two = [
+			{ id: 'x', points: 3, opponents: ['y'], hadBye: false },
+			{ id: 'y', points: 0, opponents: ['x'], hadBye: false }
+		];
+		const r = tryPairRound(two, 2);
+		expect(r.pairs).toEqual([{ a: 'x', b: 'y' }]);
+		expect(r.problems).toEqual(['x and y have met before']);
+	});
+});

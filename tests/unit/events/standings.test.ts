@@ -145,3 +145,12 @@ describe('the history the next round is paired from', () => {
 		]);
 	});
 });
+
+describe('CSV export cells', () => {
+	it('quotes commas and quotes, and defuses formula-looking text (RFC 4180; OWASP CSV injection advice)', async () => {
+		const { toCsv } = await import('$lib/pairings');
+		expect(toCsv(['a', 'b'], [['x, y', 'say "hi"'], ['=SUM(A1)', -3], [null, 2.5]])).toBe(
+			'a,b\r\n"x, y","say ""hi"""\r\n\'=SUM(A1),-3\r\n,2.5\r\n'
+		);
+	});
+});

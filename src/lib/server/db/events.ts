@@ -133,4 +133,23 @@ export async function isJudge(eventId: number, userId: string, trx?: Db): Promis
 	return !!(await use(trx)('event_judges').where({ event_id: eventId, user_id: userId }).first());
 }
 
-export const events = { add, find, lock, listForClub, listCurrent, setStatus, judges, isJudge };
+
+
+export interface EventAccess {
+	/** the user's role in the event's club, null outside it */
+	clubRole: 'member' | 'organiser' | null;
+	/** organisers of the event's club manage it */
+	organiser: boolean;
+	/** judges of the event may enter results */
+	judge: boolean;
+}
+
+export async function accessFor(event: { id: number; clubId: number }, userId: string, trx?: Db): Promise<EventAccess> {
+	const [m, judge] = await Promise.all([
+		use(trx)('club_members').where({ club_id: event.clubId, user_id: userId }).select('role').first(),
+		isJudge(event.id, userId, trx)
+	]);
+	const clubRole = (m?.role as EventAccess['clubRole'] | undefined) ?? null;
+	return { clubRole, organiser: clubRole === 'organiser', judge };
+}
+export const events = { add, find, lock, listForClub, listCurrent, setStatus, judges, isJudge, accessFor };

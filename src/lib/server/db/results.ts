@@ -4,7 +4,7 @@
 import type { Knex } from 'knex';
 import { profileSchema } from '$lib/schemas/check';
 import type { ArchiveFilter } from '$lib/schemas/club';
-import type { ResultIn } from '$lib/pairings';
+import { computeStandings, type ResultIn, type StandingRow } from '$lib/pairings';
 import { db, use, type Db } from './index';
 
 type Outcome = 'a' | 'b' | 'draw';
@@ -72,6 +72,25 @@ export async function confirmed(eventId: number, trx?: Db): Promise<ResultIn[]> 
 		.select('r.number', 'p.player_a', 'p.player_b', 'p.outcome', 'p.value_a', 'p.value_b')
 		.orderBy('r.number');
 	return rows.map((r) => ({ round: r.number, a: r.player_a, b: r.player_b, outcome: r.outcome, valueA: r.value_a ?? 0, valueB: r.value_b ?? 0 }));
+}
+
+/** Standings over everyone who entered or played (a player who withdrew keeps their games). */
+export async function standings(eventId: number, trx?: Db): Promise<StandingRow[]> {
+	const q = use(trx);
+	const [entered, played, done] = await Promise.all([
+		q('event_entries as x').join('users as u', 'u.id', 'x.user_id').where({ 'x.event_id': eventId, 'x.status': 'entered' }).select('x.user_id as id', 'u.display_name as name'),
+		q('event_pairings as p')
+			.join('event_rounds as r', 'r.id', 'p.round_id')
+			.join('users as u', function () {
+				this.on('u.id', '=', 'p.player_a').orOn('u.id', '=', 'p.player_b');
+			})
+			.where('r.event_id', eventId)
+			.distinct('u.id as id', 'u.display_name as name'),
+		confirmed(eventId, trx)
+	]);
+	const names = new Map<string, string>();
+	for (const p of [...entered, ...played] as { id: string; name: string }[]) names.set(p.id, p.name);
+	return computeStandings([...names].map(([id, name]) => ({ id, name })), done);
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -203,4 +222,4 @@ export async function recentGames(clubId: number, trx?: Db): Promise<ArchiveGame
 	return (await archive(clubId, {}, trx)).slice(0, 10);
 }
 
-export const results = { report, confirm, enter, confirmed, archive, archiveChoices, statistics, recentGames };
+export const results = { report, confirm, enter, confirmed, standings, archive, archiveChoices, statistics, recentGames };
