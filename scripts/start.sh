@@ -3,6 +3,8 @@
 # an empty database), a production build, and the app at http://127.0.0.1:3000. Ctrl-C stops all.
 source "$(dirname "$0")/lib.sh"
 
+# Uploads may be up to UPLOAD_MAX_BYTES (5 MiB); routes enforce their own, smaller caps.
+export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-6M}"
 export HOST="${HOST:-127.0.0.1}" PORT="${PORT:-3000}"
 export ORIGIN="${ORIGIN:-http://$HOST:$PORT}"
 export DATABASE_URL="${DATABASE_URL:-postgres://postgres@127.0.0.1:$PGPORT/inchwarden}"

@@ -10,6 +10,8 @@ export NODE_ENV=production
 SLOT="${TEST_SLOT:-0}"
 case "$SLOT" in [0-9]) ;; *) die "TEST_SLOT must be 0-9" ;; esac
 SUFFIX=""; [ "$SLOT" = 0 ] || SUFFIX="_$SLOT"
+# Uploads may be up to UPLOAD_MAX_BYTES (5 MiB); routes enforce their own, smaller caps.
+export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-6M}"
 export HOST=127.0.0.1 PORT="$((3100 + SLOT))"
 export ORIGIN="http://127.0.0.1:$PORT" TEST_BASE_URL="http://127.0.0.1:$PORT"
 export DATABASE_URL="${TEST_DATABASE_URL:-postgres://postgres@127.0.0.1:$PGPORT/inchwarden_test$SUFFIX}"
