@@ -1,8 +1,7 @@
-// A saved layout to snapshot into a new game. The layouts table arrives with the board editor;
-// until its entity module lands, games are created from a layout document only.
+// A saved layout to snapshot into a new game (any signed-in user may reuse a saved layout).
 import type { Layout } from '$lib/schemas/layout';
+import { layouts } from '$lib/server/db/layouts';
 
 export async function savedLayout(id: number): Promise<Layout | null> {
-	void id;
-	return null;
+	return (await layouts.find(id))?.doc ?? null;
 }

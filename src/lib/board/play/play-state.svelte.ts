@@ -1,0 +1,558 @@
+// The play screen's state, one instance per page: the game as the server last told it, the
+// unit being moved and its dragged paths, the live check the browser runs on every drag frame,
+// the measuring tool, deployment drags, and the live event stream that keeps two tablets in step.
+import { checkMove, footprintDistance, horizontalIn, localFootprint, pathSteps, pivotIn } from '../../referee';
+import type { CheckReport, Finding, MoveKind, Waypoint } from '../../schemas/check';
+import { otherSide, type GamePiece, type GameView, type MoveLogEntry, type Pose, type Side } from '../../schemas/game';
+import type { BoardPiece, Overlay, BoardPointer } from '../types';
+import type { PointIn } from '../view';
+import { checkRequestFor } from './rules';
+import { simplifyTrace, type TracePoint } from './simplify';
+import { unitsOf, type UnitSummary } from './pieces';
+import { gameApi, type ChangeAnswer } from './api';
+
+/** Smallest pointer travel (in) that adds a point to a dragged path: finer than the 0.1 in simplification. */
+const TRACE_STEP_IN = 0.02;
+/** One press of a turn button turns the piece this much. */
+export const TURN_STEP_DEG = 15;
+
+export const sideLabel = (s: Side): string => (s === 'a' ? 'Side A' : 'Side B');
+export const kindLabel: Record<MoveKind, string> = { hold: 'Hold', move: 'Move', dash: 'Dash', withdraw: 'Withdraw' };
+export const inches = (v: number): string => `${v.toFixed(2)} in`;
+
+/** Widest extent of a footprint (in), for laying a unit out at deployment. */
+function extentIn(p: GamePiece): number {
+	const f = p.footprint;
+	if (f.shape === 'round') return f.diameterMm / 25.4;
+	if (f.shape === 'oval') return f.lengthMm / 25.4;
+	return 2 * Math.max(...f.points.map(([x, y]) => Math.hypot(x, y)));
+}
+
+export type MeasurePick = { piece: string } | { point: PointIn };
+
+export interface CostBreakdown {
+	piece: string;
+	cost: number;
+	allowance: number;
+	horizontal: number;
+	pivot: number;
+	climb: number;
+}
+
+export class PlayState {
+	game = $state.raw<GameView>(null as unknown as GameView);
+	log = $state.raw<MoveLogEntry[]>([]);
+	rosters = $state.raw<{ id: number; name: string; units: number }[]>([]);
+	userId: string;
+
+	selectedUnit = $state<string | null>(null);
+	kind = $state<MoveKind>('move');
+	/** raw dragged traces, starting at the piece's position, per piece of the selected unit */
+	drafts = $state.raw<Record<string, TracePoint[]>>({});
+	activePiece = $state<string | null>(null);
+	private grab: { piece: string; dx: number; dy: number; redeploy: boolean } | null = null;
+
+	measuring = $state(false);
+	measurePicks = $state.raw<MeasurePick[]>([]);
+
+	deployDrag = $state.raw<{ unit: string; at: PointIn | null } | null>(null);
+
+	/** the server's last refusal of a move (its findings are the ones that count) */
+	refusal = $state.raw<{ message: string; report: CheckReport | null } | null>(null);
+	notice = $state<string | null>(null);
+	busy = $state(false);
+	live = $state<'connecting' | 'live' | 'offline'>('connecting');
+
+	private api: ReturnType<typeof gameApi>;
+	private events: EventSource | null = null;
+
+	constructor(game: GameView, userId: string, rosters: { id: number; name: string; units: number }[]) {
+		this.game = game;
+		this.userId = userId;
+		this.rosters = rosters;
+		this.api = gameApi(game.id);
+	}
+
+	// --- what the screen shows --------------------------------------------------------------------
+
+	state = $derived(this.game.state);
+	mySides = $derived(this.game.mySides);
+	isMyTurn = $derived(this.mySides.includes(this.game.state.activeSide));
+	units = $derived(unitsOf(this.game.state.pieces));
+	pending = $derived(this.game.state.pending);
+	canAccept = $derived(!!this.pending && this.mySides.includes(otherSide(this.pending.side)));
+	canTakeBack = $derived(!!this.pending && this.mySides.includes(this.pending.side));
+	dieForSelected = $derived(this.state.die && this.state.die.unit === this.selectedUnit ? this.state.die.value : null);
+
+	selected = $derived<UnitSummary | null>(this.units.find((u) => u.unit === this.selectedUnit) ?? null);
+
+	/** The simplified waypoints of every dragged piece: exactly what would be submitted. */
+	paths = $derived.by(() => {
+		const out: Record<string, Waypoint[]> = {};
+		for (const [id, trace] of Object.entries(this.drafts)) if (trace.length > 1) out[id] = simplifyTrace(trace);
+		return out;
+	});
+
+	/** The browser's check of the draft move, recomputed on every drag frame (advice only). */
+	liveReport = $derived.by<CheckReport | null>(() => {
+		const unit = this.selectedUnit;
+		if (!unit || this.state.phase !== 'move' || !this.isMyTurn) return null;
+		if (this.kind === 'dash' && this.dieForSelected === null) return null;
+		try {
+			return checkMove(
+				checkRequestFor(this.game.layout, this.game.profile, this.state.pieces, {
+					unit,
+					kind: this.kind,
+					die: this.kind === 'dash' ? (this.dieForSelected ?? undefined) : undefined,
+					paths: this.kind === 'hold' ? undefined : this.paths
+				})
+			);
+		} catch {
+			return null;
+		}
+	});
+
+	/** Cost of each dragged piece split into across / turning / climbing. */
+	breakdown = $derived.by<CostBreakdown[]>(() => {
+		const r = this.liveReport;
+		if (!r) return [];
+		const out: CostBreakdown[] = [];
+		for (const [id, wps] of Object.entries(this.paths)) {
+			const p = this.state.pieces.find((q) => q.id === id);
+			const pr = r.pieces[id];
+			if (!p?.at || !pr) continue;
+			const steps = pathSteps(p.at, wps);
+			const local = localFootprint(p.footprint, this.game.profile.tolerance);
+			const horizontal = horizontalIn(steps);
+			const pivot = pivotIn(steps, local.rMaxIn, local.round, this.game.profile);
+			out.push({ piece: id, cost: pr.cost, allowance: pr.allowance, horizontal, pivot, climb: Math.max(0, pr.cost - horizontal - pivot) });
+		}
+		return out;
+	});
+
+	/** Findings to show: the server's, when it refused the draft, else the browser's live ones. */
+	findings = $derived<Finding[]>(this.refusal?.report?.findings ?? this.liveReport?.findings ?? []);
+
+	/** Where each piece of the selected unit stands at the end of its draft path. */
+	private draftPose(p: GamePiece): Pose | null {
+		if (!p.at) return null;
+		const trace = this.drafts[p.id];
+		if (!trace || trace.length < 2) return p.at;
+		let facing = p.at.facing ?? 0;
+		for (const t of trace) if (t.facing !== undefined) facing = t.facing;
+		const end = trace[trace.length - 1];
+		return { x: end.x, y: end.y, facing };
+	}
+
+	/** Pieces drawn on the board: draft positions, ghosts of where dragged pieces started, deploy previews. */
+	boardPieces = $derived.by<BoardPiece[]>(() => {
+		const flagged = new Set(this.findings.filter((f) => f.severity !== 'warning').map((f) => f.pieces[0]));
+		const out: BoardPiece[] = [];
+		const unitNo = (unit: string) => unit.split('-u')[1] ?? '';
+		const pendingBefore = this.pending?.before ?? {};
+		for (const p of this.state.pieces) {
+			if (!p.at) continue;
+			const pose = this.draftPose(p)!;
+			const label = `${unitNo(p.unit)}${p.leader ? 'L' : ''}`;
+			if (this.drafts[p.id] && this.drafts[p.id].length > 1) out.push({ id: `${p.id}~start`, side: p.side, footprint: p.footprint, at: p.at, faded: true });
+			const before = pendingBefore[p.id];
+			if (before && (before.x !== p.at.x || before.y !== p.at.y)) out.push({ id: `${p.id}~before`, side: p.side, footprint: p.footprint, at: before, faded: true });
+			out.push({ id: p.id, side: p.side, footprint: p.footprint, at: pose, label, flagged: flagged.has(p.id) });
+		}
+		for (const g of this.deployGhosts) out.push(g);
+		return out;
+	});
+
+	/** Where a unit dragged out of the roster panel would be put down. */
+	deployGhosts = $derived.by<BoardPiece[]>(() => {
+		const d = this.deployDrag;
+		if (!d?.at) return [];
+		return this.formation(d.unit, d.at).map((pl) => {
+			const p = this.state.pieces.find((q) => q.id === pl.piece)!;
+			return { id: `${p.id}~ghost`, side: p.side, footprint: p.footprint, at: pl.at, faded: true };
+		});
+	});
+
+	overlays = $derived.by<Overlay[]>(() => {
+		const out: Overlay[] = [];
+		const s = this.state;
+		const prof = this.game.profile;
+		const unit = this.selected;
+		if (unit && s.phase === 'move') {
+			const tone = unit.side === 'a' ? 'sidea' : 'sideb';
+			// Keep-out zones of every enemy piece on the table.
+			for (const p of s.pieces) if (p.at && p.side !== unit.side) out.push({ kind: 'keep-out', pieceId: p.id, distanceIn: prof.keepOut, tone: 'signal' });
+			// Dragged paths, as they will be submitted (simplified).
+			for (const [id, wps] of Object.entries(this.paths)) {
+				const p = s.pieces.find((q) => q.id === id);
+				if (p?.at) out.push({ kind: 'path', points: [{ x: p.at.x, y: p.at.y }, ...wps.map((w) => ({ x: w.x, y: w.y }))], tone, arrow: true });
+			}
+			// Spacing links: each piece to its nearest unit-mate, with the edge-to-edge gap.
+			const mine = unit.pieces.filter((p) => p.at).map((p) => ({ p, pose: this.draftPose(p)! }));
+			if (mine.length > 1) {
+				const drawn = new Set<string>();
+				for (const a of mine) {
+					let best: { b: (typeof mine)[number]; d: number } | null = null;
+					for (const b of mine) {
+						if (a === b) continue;
+						const d = footprintDistance(a.p.footprint, a.pose, b.p.footprint, b.pose);
+						if (!best || d < best.d) best = { b, d };
+					}
+					if (!best) continue;
+					const key = [a.p.id, best.b.p.id].sort().join('|');
+					if (drawn.has(key)) continue;
+					drawn.add(key);
+					const ok = best.d <= prof.spacing + prof.tolerance;
+					out.push({ kind: 'link', from: a.pose, to: best.b.pose, tone: ok ? 'ok' : 'signal', dashed: !ok, label: `${best.d.toFixed(2)} in${ok ? '' : ' (too far)'}` });
+				}
+			}
+			// Support rings of the unit's sources (radius from the footprint's edge, drawn from the centre).
+			for (const { p, pose } of mine) {
+				if (!p.ring) continue;
+				const r = localFootprint(p.footprint, prof.tolerance).rMaxIn;
+				out.push({ kind: 'ring', x: pose.x, y: pose.y, radiusIn: p.ring.radius + r, tone: 'brass', dashed: true, label: p.ring.label ?? 'support ring' });
+			}
+			// Allowance used on each dragged piece: "5.84 in of 6".
+			for (const b of this.breakdown) {
+				const p = s.pieces.find((q) => q.id === b.piece)!;
+				const pose = this.draftPose(p)!;
+				const over = b.cost > b.allowance + prof.tolerance;
+				out.push({ kind: 'label', x: pose.x, y: pose.y - 1.2, text: `${b.cost.toFixed(2)} in of ${fmtLimit(b.allowance)}${over ? ' — too far' : ''}`, tone: over ? 'signal' : 'ink' });
+			}
+		}
+		// A marker with words at the piece each finding is about.
+		for (const f of this.findings) {
+			if (f.severity === 'warning') continue;
+			const p = s.pieces.find((q) => q.id === f.pieces[0]);
+			const pose = p ? this.draftPose(p) : null;
+			if (pose) out.push({ kind: 'warning', x: pose.x + 0.9, y: pose.y - 0.9, label: f.code.replace(/-/g, ' ') });
+		}
+		// The move awaiting acceptance, drawn for both players.
+		const pend = this.pending;
+		if (pend) {
+			const entry = this.log.find((e) => e.seq === pend.seq);
+			const paths = (entry?.payload.paths ?? {}) as Record<string, Waypoint[]>;
+			for (const [id, wps] of Object.entries(paths)) {
+				const start = pend.before[id];
+				if (start) out.push({ kind: 'path', points: [{ x: start.x, y: start.y }, ...wps.map((w) => ({ x: w.x, y: w.y }))], tone: 'brass', dashed: true, arrow: true });
+			}
+		}
+		// The measuring tape.
+		const m = this.measurement;
+		if (m) out.push({ kind: 'link', from: m.from, to: m.to, tone: 'brass', label: `${m.distance.toFixed(2)} in edge to edge` });
+		for (const pick of this.measurePicks) {
+			const at = this.pickPoint(pick);
+			if (at) out.push({ kind: 'handle', id: `measure-${at.x}-${at.y}`, x: at.x, y: at.y, shape: 'round' });
+		}
+		return out;
+	});
+
+	// --- measuring ------------------------------------------------------------------------------------
+
+	private pickPoint(pick: MeasurePick): PointIn | null {
+		if ('point' in pick) return pick.point;
+		const p = this.state.pieces.find((q) => q.id === pick.piece);
+		return p ? this.draftPose(p) : null;
+	}
+
+	/** The edge-to-edge distance between the two picks (a point counts as a footprint of no size). */
+	measurement = $derived.by<{ from: PointIn; to: PointIn; distance: number } | null>(() => {
+		if (this.measurePicks.length < 2) return null;
+		const [a, b] = this.measurePicks;
+		const fa = this.pickFootprint(a);
+		const fb = this.pickFootprint(b);
+		if (!fa || !fb) return null;
+		return { from: fa.at, to: fb.at, distance: Math.max(0, footprintDistance(fa.fp, fa.at, fb.fp, fb.at)) };
+	});
+
+	private pickFootprint(pick: MeasurePick) {
+		if ('point' in pick) return { fp: { shape: 'round' as const, diameterMm: 1e-6 }, at: { ...pick.point, facing: 0 } };
+		const p = this.state.pieces.find((q) => q.id === pick.piece);
+		const at = p ? this.draftPose(p) : null;
+		return p && at ? { fp: p.footprint, at } : null;
+	}
+
+	toggleMeasure(): void {
+		this.measuring = !this.measuring;
+		this.measurePicks = [];
+	}
+
+	// --- choosing ---------------------------------------------------------------------------------------
+
+	selectUnit(unit: string | null): void {
+		if (unit === this.selectedUnit) return;
+		this.selectedUnit = unit;
+		this.drafts = {};
+		this.activePiece = null;
+		this.refusal = null;
+		// A unit with a die waiting can only dash (or hold).
+		this.kind = unit && this.state.die?.unit === unit ? 'dash' : 'move';
+	}
+
+	chooseKind(kind: MoveKind): void {
+		this.kind = kind;
+		this.refusal = null;
+		if (kind === 'hold') this.drafts = {};
+	}
+
+	resetPaths(): void {
+		this.drafts = {};
+		this.activePiece = null;
+		this.refusal = null;
+	}
+
+	/** A facing change at the current end of the active piece's path. */
+	addTurn(deltaDeg: number): void {
+		const id = this.activePiece ?? this.selected?.pieces.find((p) => p.at)?.id;
+		if (!id) return;
+		const p = this.state.pieces.find((q) => q.id === id);
+		if (!p?.at) return;
+		const trace = this.drafts[id] ?? [{ x: p.at.x, y: p.at.y }];
+		const pose = this.draftPose(p)!;
+		const facing = (((pose.facing ?? 0) + deltaDeg) % 360 + 360) % 360;
+		this.drafts = { ...this.drafts, [id]: [...trace, { x: pose.x, y: pose.y, facing }] };
+		this.activePiece = id;
+		this.refusal = null;
+	}
+
+	// --- board gestures ------------------------------------------------------------------------------
+
+	onPointer = (e: BoardPointer): boolean | void => {
+		const s = this.state;
+		if (e.phase === 'tap') return this.onTap(e);
+		if (e.phase === 'down') {
+			if (this.measuring || e.target?.layer !== 'piece') return false;
+			const piece = s.pieces.find((p) => p.id === e.target!.id);
+			if (!piece?.at || !this.isMyTurn || piece.side !== s.activeSide) return false;
+			if (s.phase === 'deploy') {
+				this.grab = { piece: piece.id, dx: e.at.x - piece.at.x, dy: e.at.y - piece.at.y, redeploy: true };
+				this.drafts = { [piece.id]: [{ x: piece.at.x, y: piece.at.y }] };
+				return true;
+			}
+			if (s.phase !== 'move' || this.pending) return false;
+			if (s.movedUnits.includes(piece.unit)) {
+				this.notice = `${piece.unitName} has moved already in this turn`;
+				return false;
+			}
+			if (this.selectedUnit !== piece.unit) this.selectUnit(piece.unit);
+			if (this.kind === 'hold') this.chooseKind('move');
+			if (this.kind === 'dash' && this.dieForSelected === null) {
+				this.notice = 'Roll the die for the dash first';
+				return false;
+			}
+			const pose = this.draftPose(piece)!;
+			this.grab = { piece: piece.id, dx: e.at.x - pose.x, dy: e.at.y - pose.y, redeploy: false };
+			if (!this.drafts[piece.id]) this.drafts = { ...this.drafts, [piece.id]: [{ x: piece.at.x, y: piece.at.y }] };
+			this.activePiece = piece.id;
+			this.refusal = null;
+			this.notice = null;
+			return true;
+		}
+		const g = this.grab;
+		if (!g) return;
+		if (e.phase === 'move') {
+			const trace = this.drafts[g.piece];
+			if (!trace) return;
+			const x = e.at.x - g.dx;
+			const y = e.at.y - g.dy;
+			const last = trace[trace.length - 1];
+			if (Math.hypot(x - last.x, y - last.y) < TRACE_STEP_IN) return;
+			this.drafts = { ...this.drafts, [g.piece]: [...trace, { x, y }] };
+			return;
+		}
+		if (e.phase === 'up' || e.phase === 'cancel') {
+			this.grab = null;
+			if (g.redeploy) {
+				const trace = this.drafts[g.piece];
+				this.drafts = {};
+				const end = trace?.[trace.length - 1];
+				const p = s.pieces.find((q) => q.id === g.piece);
+				if (e.phase === 'up' && end && p?.at && trace.length > 1) void this.deploy([{ piece: g.piece, at: { x: end.x, y: end.y, facing: p.at.facing ?? 0 } }]);
+			}
+		}
+	};
+
+	private onTap(e: BoardPointer): void {
+		if (this.measuring) {
+			const pick: MeasurePick = e.target?.layer === 'piece' && !e.target.id.includes('~') ? { piece: e.target.id } : { point: e.at };
+			this.measurePicks = this.measurePicks.length >= 2 ? [pick] : [...this.measurePicks, pick];
+			return;
+		}
+		if (e.target?.layer === 'piece') {
+			const p = this.state.pieces.find((q) => q.id === e.target!.id);
+			if (p && this.state.phase === 'move' && this.isMyTurn && p.side === this.state.activeSide) this.selectUnit(p.unit);
+		}
+	}
+
+	// --- deployment -----------------------------------------------------------------------------------
+
+	/** The unit's pieces laid out in rows of up to five around a point, facing the far edge. */
+	formation(unit: string, at: PointIn): { piece: string; at: Pose }[] {
+		const all = this.state.pieces.filter((p) => p.unit === unit);
+		const waiting = all.filter((p) => !p.at);
+		const pieces = waiting.length ? waiting : all;
+		if (!pieces.length) return [];
+		const step = Math.max(...pieces.map(extentIn)) + 0.3;
+		const perRow = Math.min(5, pieces.length);
+		const rows = Math.ceil(pieces.length / perRow);
+		const facing = pieces[0].side === 'a' ? 90 : 270;
+		return pieces.map((p, i) => {
+			const r = Math.floor(i / perRow);
+			const c = i % perRow;
+			const inRow = r === rows - 1 ? pieces.length - r * perRow : perRow;
+			return { piece: p.id, at: { x: at.x + (c - (inRow - 1) / 2) * step, y: at.y + (r - (rows - 1) / 2) * step, facing } };
+		});
+	}
+
+	startDeployDrag(unit: string): void {
+		this.deployDrag = { unit, at: null };
+		this.notice = null;
+	}
+
+	moveDeployDrag(at: PointIn | null): void {
+		if (this.deployDrag) this.deployDrag = { ...this.deployDrag, at };
+	}
+
+	async dropDeployDrag(): Promise<void> {
+		const d = this.deployDrag;
+		this.deployDrag = null;
+		if (!d?.at) return;
+		await this.deploy(this.formation(d.unit, d.at));
+	}
+
+	// --- server changes -------------------------------------------------------------------------------
+
+	private side(): Side {
+		return this.mySides.includes(this.state.activeSide) ? this.state.activeSide : this.mySides[0];
+	}
+
+	private async run(call: () => Promise<ChangeAnswer>, done?: (a: ChangeAnswer) => void): Promise<ChangeAnswer> {
+		this.busy = true;
+		this.notice = null;
+		try {
+			const a = await call();
+			if (a.game) this.game = a.game;
+			if (a.ok) done?.(a);
+			else if (a.status === 409) this.notice = `${a.error?.message ?? 'The game has moved on'}`;
+			else if (a.status !== 422 || !a.report) this.notice = a.error?.message ?? `The server answered ${a.status}`;
+			await this.refreshLog();
+			return a;
+		} finally {
+			this.busy = false;
+		}
+	}
+
+	chooseRoster(rosterId: number, side: Side): Promise<ChangeAnswer> {
+		return this.run(() => this.api.roster(this.game.seq, side, rosterId));
+	}
+
+	deploy(placements: { piece: string; at: Pose }[]): Promise<ChangeAnswer> {
+		return this.run(() => this.api.deploy(this.game.seq, this.side(), placements));
+	}
+
+	async roll(): Promise<void> {
+		if (!this.selectedUnit) return;
+		await this.run(() => this.api.roll(this.game.seq, this.selectedUnit!), () => (this.kind = 'dash'));
+	}
+
+	async submit(): Promise<void> {
+		const unit = this.selectedUnit;
+		if (!unit) return;
+		const paths = this.kind === 'hold' ? undefined : this.paths;
+		const a = await this.run(() => this.api.move(this.game.seq, unit, this.kind, paths));
+		if (a.ok) {
+			this.drafts = {};
+			this.activePiece = null;
+			this.refusal = null;
+			this.selectedUnit = null;
+			this.notice = `Move #${a.seq} recorded: ${a.report?.verdict === 'legal' ? 'legal' : ''}${this.pending ? ', waiting for the opponent to accept' : ''}`;
+		} else if (a.status === 422) {
+			this.refusal = { message: a.error?.message ?? 'Refused', report: a.report ?? null };
+		}
+	}
+
+	accept(): Promise<ChangeAnswer> {
+		return this.run(() => this.api.accept(this.game.seq));
+	}
+
+	takeBack(): Promise<ChangeAnswer> {
+		return this.run(() => this.api.takeBack(this.game.seq));
+	}
+
+	requestRuling(note: string): Promise<ChangeAnswer> {
+		return this.run(() => this.api.rulingRequest(this.game.seq, note));
+	}
+
+	endTurn(): Promise<ChangeAnswer> {
+		return this.run(() => this.api.endTurn(this.game.seq), () => this.selectUnit(null));
+	}
+
+	// --- live sync --------------------------------------------------------------------------------------
+
+	async reload(): Promise<void> {
+		const a = await this.api.get();
+		if (a.ok && a.game) {
+			const moved = a.game.seq !== this.game.seq;
+			this.game = a.game;
+			// Someone else's change may make the draft stale: a draft only survives our own turn.
+			if (moved && !this.isMyTurn) this.resetPaths();
+		}
+		await this.refreshLog();
+	}
+
+	async refreshLog(): Promise<void> {
+		const l = await this.api.log(0);
+		if (l) this.log = l.entries;
+	}
+
+	/** Listens for new log entries; EventSource reconnects by itself and sends the last id it saw. */
+	connect(): void {
+		if (this.events) return;
+		const es = new EventSource(this.api.eventsUrl);
+		this.events = es;
+		es.onopen = () => (this.live = 'live');
+		es.onerror = () => (this.live = es.readyState === EventSource.CLOSED ? 'offline' : 'connecting');
+		es.addEventListener('seq', (ev) => {
+			const seq = Number(JSON.parse((ev as MessageEvent).data).seq);
+			if (seq > this.game.seq || this.log.length === 0 || seq > this.log[this.log.length - 1].seq) void this.reload();
+		});
+	}
+
+	disconnect(): void {
+		this.events?.close();
+		this.events = null;
+	}
+}
+
+function fmtLimit(v: number): string {
+	return Number.isInteger(v) ? String(v) : v.toFixed(2);
+}
+
+/** A log entry in one sentence, for the log panel. */
+export function describeEntry(e: MoveLogEntry, pieces: readonly GamePiece[]): string {
+	const unitName = (u: unknown) => pieces.find((p) => p.unit === u)?.unitName ?? String(u);
+	const p = e.payload as Record<string, unknown>;
+	const side = e.side ? sideLabel(e.side) : '';
+	switch (e.kind) {
+		case 'roster':
+			return `${side} brings "${p.rosterName}" (${p.pieces} pieces)`;
+		case 'deploy':
+			return `${side} deploys ${(p.placements as unknown[]).length} piece(s)`;
+		case 'roll':
+			return `${side} rolls ${p.die} for the dash of ${unitName(p.unit)}`;
+		case 'move':
+			return `${side}: ${unitName(p.unit)} — ${kindLabel[p.kind as MoveKind]}${p.die ? ` (die ${p.die})` : ''}, legal`;
+		case 'refused':
+			return `${side}: ${unitName(p.unit)} — ${kindLabel[p.kind as MoveKind]} refused: ${(e.report?.findings ?? []).filter((f) => f.severity !== 'warning').map((f) => f.message).join('; ')}`;
+		case 'accept':
+			return `${side} accepts move #${p.moveSeq}`;
+		case 'take-back':
+			return `${side} takes move #${p.moveSeq} back`;
+		case 'ruling-request':
+			return `${side} asks a judge about move #${p.moveSeq}: "${p.note}"`;
+		case 'end-turn': {
+			const next = p.next as { phase: string; round: number; side: Side };
+			return `${side} ends its ${p.phase === 'deploy' ? 'deployment' : 'turn'}; next: ${sideLabel(next.side)}${next.phase === 'move' ? `, round ${next.round}` : ''}`;
+		}
+	}
+}
