@@ -149,11 +149,26 @@ export function layoutToBoard(layout: Layout): {
 
 export const layoutIdSchema = z.coerce.number().int().positive();
 
-/** POST: a new layout, either a whole document or a copy of a saved one (anyone may reuse). */
-export const createLayoutSchema = z.union([
-	z.object({ doc: layoutSchema }).strict(),
-	z.object({ copyOf: z.number().int().positive(), name: nameSchema.optional() }).strict()
-]);
+/**
+ * POST: a new layout, either a whole document ({ doc }) or a copy of a saved one
+ * ({ copyOf, name? }: anyone may reuse). One object, not a union, so a bad document's
+ * issues keep their paths (doc.terrain.0.height) instead of one "no branch matched".
+ */
+export const createLayoutSchema = z
+	.object({
+		doc: layoutSchema.optional(),
+		copyOf: z.number().int().positive().optional(),
+		name: nameSchema.optional()
+	})
+	.strict()
+	.superRefine((b, ctx) => {
+		if ((b.doc === undefined) === (b.copyOf === undefined)) {
+			ctx.addIssue({ code: 'custom', path: [], message: 'send either "doc" (a layout) or "copyOf" (a saved layout id)' });
+		}
+		if (b.doc !== undefined && b.name !== undefined) {
+			ctx.addIssue({ code: 'custom', path: ['name'], message: '"name" goes inside "doc"' });
+		}
+	});
 
 /** PUT: the new document and the version it was edited from; a stale version gets 409. */
 export const updateLayoutSchema = z

@@ -19,9 +19,9 @@ export const POST: RequestHandler = async ({ locals, request }) => {
 	const body = await parseJson(request, createLayoutSchema);
 	if (!body.ok) return body.response;
 
-	if ('doc' in body.data) return json({ layout: await layouts.add(user.id, body.data.doc) }, { status: 201 });
+	if (body.data.doc) return json({ layout: await layouts.add(user.id, body.data.doc) }, { status: 201 });
 
-	const source = await layouts.find(body.data.copyOf);
+	const source = await layouts.find(body.data.copyOf!);
 	if (!source) return jsonError(404, 'There is no saved layout with that id');
 	const doc = { ...source.doc, name: body.data.name ?? copyName(source.doc.name) };
 	return json({ layout: await layouts.add(user.id, doc) }, { status: 201 });
