@@ -175,10 +175,10 @@ describe('properties of path cost', () => {
 	const costOf = (p: PieceIn, path: { x: number; y: number; facing?: number }[], terrain: TerrainIn[]) =>
 		checkMove({ board: { width: 200, depth: 200, terrain }, pieces: [{ ...p }], move: { unit: 'u1', kind: 'move', paths: { [p.id]: path } } }).pieces[p.id].cost;
 	const blocks = fc.array(
-		fc.record({ x: coord(20, 60), y: coord(20, 60), w: coord(0.5, 6), h: coord(0.5, 6), height: coord(0.5, 3) }).map(
-			(b, i): TerrainIn => ({ id: `b${i}`, kind: 'block', outline: [[b.x, b.y], [b.x + b.w, b.y], [b.x + b.w, b.y + b.h], [b.x, b.y + b.h]], height: b.height })
-		),
+		fc.record({ x: coord(20, 60), y: coord(20, 60), w: coord(0.5, 6), h: coord(0.5, 6), height: coord(0.5, 3) }),
 		{ maxLength: 3 }
+	).map((list): TerrainIn[] =>
+		list.map((b, i): TerrainIn => ({ id: `b${i}`, kind: 'block', outline: [[b.x, b.y], [b.x + b.w, b.y], [b.x + b.w, b.y + b.h], [b.x, b.y + b.h]], height: b.height }))
 	);
 	const poses = fc.array(fc.record({ x: coord(15, 70), y: coord(15, 70), facing: coord(-180, 180) }), { minLength: 2, maxLength: 6 });
 

@@ -7,7 +7,7 @@ type Handler = (event: unknown) => Promise<Response>;
 const post = POST as unknown as Handler;
 
 function call(body: string | Uint8Array, headers: Record<string, string> = {}): Promise<Response> {
-	const request = new Request('http://localhost/api/v1/check', { method: 'POST', headers: { 'content-type': 'application/json', ...headers }, body });
+	const request = new Request('http://localhost/api/v1/check', { method: 'POST', headers: { 'content-type': 'application/json', ...headers }, body: body as BodyInit });
 	// the handler reads only `request`; the rest of a RequestEvent is not needed
 	return post({ request, url: new URL(request.url), params: {}, locals: {}, getClientAddress: () => '127.0.0.1' });
 }

@@ -2,7 +2,7 @@
 // entries, rounds with pairings and results, standings. Every action checks its role here:
 // players act on their own entry and pairing; the club's organisers run the event; the
 // event's judges may also enter results.
-import { fail, redirect } from '@sveltejs/kit';
+import { fail } from '@sveltejs/kit';
 import { entryIdSchema, pairingIdSchema, registerSchema, resultSchema, swapSchema } from '$lib/schemas/event';
 import { requireUser } from '$lib/server/auth/roles';
 import { entries } from '$lib/server/db/entries';
@@ -41,12 +41,7 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 		judges,
 		rounds,
 		standings,
-		paymentNotice:
-			url.searchParams.get('payment') === 'cancelled'
-				? 'The payment was cancelled; your place is held for a while — pay to keep it.'
-				: url.searchParams.get('payment') === 'unavailable'
-					? 'The payment provider could not be reached; nothing was charged. Try again in a moment.'
-					: null
+		paymentNotice: url.searchParams.get('payment') === 'cancelled' ? 'The payment was cancelled; your place is held for a while — pay to keep it.' : null
 	};
 };
 
@@ -69,18 +64,20 @@ function origin(e: RequestEvent): string {
 	return (process.env.ORIGIN ?? e.url.origin).replace(/\/+$/, '');
 }
 
-async function checkout(e: RequestEvent, ctx: Ctx, entryId: number): Promise<never> {
-	let url: string;
+/**
+ * Opens the checkout and hands its address back to the page, which sends the browser there.
+ * Not a redirect: our content security policy keeps form posts (and their redirects) on our
+ * own origin, and the provider's page is on another.
+ */
+async function checkout(e: RequestEvent, ctx: Ctx, entryId: number) {
 	try {
-		url = (
-			await payments.startCheckout({ entryId, eventId: ctx.event.id, eventName: ctx.event.name, amountCents: ctx.event.entryFeeCents, currency: ctx.event.currency, origin: origin(e) })
-		).url;
+		const { url } = await payments.startCheckout({ entryId, eventId: ctx.event.id, eventName: ctx.event.name, amountCents: ctx.event.entryFeeCents, currency: ctx.event.currency, origin: origin(e) });
+		return { message: 'Your place is held: pay on the payment provider’s page to keep it', checkoutUrl: url };
 	} catch (err) {
 		console.error('checkout failed', err);
 		// The entry stays (awaiting payment): the player can try again from the event page.
-		redirect(303, `/events/${ctx.event.id}?payment=unavailable`);
+		return fail(502, { message: 'The payment provider could not be reached; nothing was charged. Try again in a moment.' });
 	}
-	redirect(303, url);
 }
 
 /** A pairing of this event, or null. */
@@ -100,7 +97,7 @@ export const actions = {
 			const message = { closed: 'Registration is closed', full: 'The event is full', 'already-entered': 'You have entered already', 'no-event': 'No such event' }[r.reason];
 			return fail(409, { message });
 		}
-		if (r.status === 'awaiting-payment') await checkout(e, ctx, r.entryId);
+		if (r.status === 'awaiting-payment') return checkout(e, ctx, r.entryId);
 		return { message: 'You are entered' };
 	},
 	pay: async (e) => {
@@ -108,7 +105,7 @@ export const actions = {
 		const mine = await entries.forUser(ctx.event.id, ctx.user.id);
 		if (!mine || mine.status !== 'awaiting-payment') return fail(409, { message: 'There is no entry fee waiting to be paid' });
 		if (ctx.event.status !== 'open') return fail(409, { message: 'Registration is closed' });
-		await checkout(e, ctx, mine.id);
+		return checkout(e, ctx, mine.id);
 	},
 	withdraw: async (e) => {
 		const ctx = await context(e);
