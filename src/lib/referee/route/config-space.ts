@@ -150,7 +150,11 @@ export function buildConfigSpace(req: RouteRequest): ConfigSpace {
 	const localInner = localFootprint(piece.footprint, eps).inner;
 	const innerAt = (x: number, y: number) => place(localInner, x, y, facingDeg);
 
-	const fb = boxOfPts(F.pts, F.r);
+	// The board edge by the footprint's box; for other shapes than round by the box of the circle
+	// round its farthest point, because the check currently measures an end that way (the finder
+	// must never be less strict than the check; see docs/route-finder.md, "Limits").
+	const rMax = localFootprint(piece.footprint, eps).rMaxIn + (round ? 0 : OVAL_CHORD_ERROR_IN);
+	const fb = round ? boxOfPts(F.pts, F.r) : { minX: -rMax, minY: -rMax, maxX: rMax, maxY: rMax };
 	const rect = { x0: -fb.minX - eps + mu, y0: -fb.minY - eps + mu, x1: table.board.width - fb.maxX + eps - mu, y1: table.board.depth - fb.maxY + eps - mu };
 
 	// Only what a path of at most the budget can reach matters.

@@ -195,7 +195,7 @@ export function circleCircle(ax: number, ay: number, ar: number, bx: number, by:
 	const dx = bx - ax;
 	const dy = by - ay;
 	const d = Math.hypot(dx, dy);
-	if (d === 0 || d > ar + br || d < Math.abs(ar - br)) return;
+	if (d === 0 || d > ar + br + 1e-12 || d < Math.abs(ar - br) - 1e-12) return;
 	const base = Math.atan2(dy, dx);
 	const c = (ar * ar + d * d - br * br) / (2 * ar * d);
 	const h = Math.acos(Math.max(-1, Math.min(1, c)));
@@ -212,11 +212,16 @@ export function circleSegment(cx: number, cy: number, r: number, ax: number, ay:
 	if (a === 0) return;
 	const b = 2 * (fx * dx + fy * dy);
 	const c = fx * fx + fy * fy - r * r;
-	const disc = b * b - 4 * a * c;
-	if (disc < 0) return;
+	let disc = b * b - 4 * a * c;
+	// a segment tangent to the circle (an edge of the set the circle is a corner of) must give
+	// its touching point even when rounding makes the discriminant a hair negative
+	if (disc < 0) {
+		if (disc < -4e-9 * a * r * r) return;
+		disc = 0;
+	}
 	const sq = Math.sqrt(disc);
 	for (const t of [(-b - sq) / (2 * a), (-b + sq) / (2 * a)]) {
-		if (t >= 0 && t <= 1) out.push(Math.atan2(fy + t * dy, fx + t * dx));
+		if (t >= -1e-6 && t <= 1 + 1e-6) out.push(Math.atan2(fy + t * dy, fx + t * dx));
 	}
 }
 
