@@ -3,6 +3,7 @@ import type { Knex } from 'knex';
 import { hash } from '@node-rs/argon2';
 import { randomUUID } from 'node:crypto';
 import { DEMO_CLUB, DEMO_FORCES, DEMO_PASSWORD, DEMO_PEOPLE } from './data/demo';
+import { demoLayout } from '../src/lib/board/demo-layout';
 
 export async function seed(knex: Knex): Promise<void> {
 	const existing = await knex('users').count<{ count: number }[]>({ count: '*' });
@@ -30,6 +31,13 @@ export async function seed(knex: Knex): Promise<void> {
 				role: p.roles.includes('organiser') ? 'organiser' : 'member'
 			});
 		}
+		const layout = demoLayout();
+		await trx('layouts').insert({
+			owner_id: ids.get('priya'),
+			name: layout.name,
+			doc: JSON.stringify(layout),
+			schema_version: layout.schemaVersion
+		});
 		for (const f of DEMO_FORCES) {
 			await trx('rosters').insert({
 				owner_id: ids.get(f.owner),

@@ -1,7 +1,7 @@
 // The demo table, invented for the demo: "Fennmoor crossroads" on a 44 × 60 in table, with
 // three blocks, a ruined chapel with walls, a mill pond (impassable), a wood (area terrain),
 // four objectives and a deployment zone for each side. Seeds and tests use it.
-import { LAYOUT_SCHEMA_VERSION, type Layout } from '$lib/schemas/layout';
+import { LAYOUT_SCHEMA_VERSION, type Layout } from '../schemas/layout';
 
 export const DEMO_LAYOUT_NAME = 'Fennmoor crossroads';
 
