@@ -31,7 +31,7 @@ async function player(tag: string): Promise<{ client: Client; id: string }> {
 /** A request with the client's session cookie and a body of raw bytes. */
 async function raw(c: Client, method: string, path: string, body?: Uint8Array | string, headers: Record<string, string> = {}): Promise<Response> {
 	const cookie = [...c.cookies].map(([k, v]) => `${k}=${encodeURIComponent(v)}`).join('; ');
-	return fetch(BASE + path, { method, redirect: 'manual', body, headers: { origin: BASE, cookie, 'x-forwarded-for': c.address, ...headers } });
+	return fetch(BASE + path, { method, redirect: 'manual', body: body as BodyInit | undefined, headers: { origin: BASE, cookie, 'x-forwarded-for': c.address, ...headers } });
 }
 const upload = (c: Client, bytes: Uint8Array | string, purpose = 'roster-import', headers: Record<string, string> = {}) =>
 	raw(c, 'POST', `/api/v1/files?purpose=${purpose}`, bytes, { 'content-type': 'application/octet-stream', ...headers });

@@ -7,6 +7,11 @@ import { maxBytesFor, readBody, storeUpload, tooLarge, uploadView, UPLOAD_PURPOS
 import { guard, jsonError } from '$lib/server/http';
 import type { RequestHandler } from './$types';
 
+// A refusal sent before the body is read leaves the rest of it on the socket: close the
+// connection so that no client reuses it for its next request.
+const refuse = (status: number, message: string) =>
+	jsonError(status, message, status === 413 ? { headers: { connection: 'close' } } : undefined);
+
 const purposeSchema = z.enum(UPLOAD_PURPOSES, { error: `purpose must be one of ${UPLOAD_PURPOSES.join(', ')}` });
 
 export const GET: RequestHandler = async ({ locals }) => {
@@ -27,7 +32,7 @@ export const POST: RequestHandler = async ({ locals, request, url }) => {
 	if (multipart) {
 		// The largest limit of any purpose bounds the form; the purpose's own limit follows.
 		const form = await readBody(request, Math.max(...UPLOAD_PURPOSES.map(maxBytesFor)) + 64 * 1024);
-		if (!form.ok) return jsonError(form.status, form.message);
+		if (!form.ok) return refuse(form.status, form.message);
 		let data: FormData;
 		try {
 			data = await new Request(url, { method: 'POST', headers: request.headers, body: form.bytes }).formData();
@@ -40,13 +45,17 @@ export const POST: RequestHandler = async ({ locals, request, url }) => {
 		fileName = file.name;
 		const purpose = purposeSchema.safeParse(purposeRaw);
 		if (!purpose.success) return jsonError(400, purpose.error.issues[0].message, { issues: [{ path: ['purpose'], message: purpose.error.issues[0].message }] });
-		if (file.size > maxBytesFor(purpose.data)) return jsonError(413, tooLarge(maxBytesFor(purpose.data)).message);
+		if (file.size > maxBytesFor(purpose.data)) return refuse(413, tooLarge(maxBytesFor(purpose.data)).message);
 		bytes = new Uint8Array(await file.arrayBuffer());
 	} else {
 		const purpose = purposeSchema.safeParse(purposeRaw);
-		if (!purpose.success) return jsonError(400, purpose.error.issues[0].message, { issues: [{ path: ['purpose'], message: purpose.error.issues[0].message }] });
+		if (!purpose.success) {
+			// Read (a bounded amount of) the body first: answering mid-upload resets the connection.
+			await readBody(request, maxBytesFor('roster-import'));
+			return jsonError(400, purpose.error.issues[0].message, { issues: [{ path: ['purpose'], message: purpose.error.issues[0].message }] });
+		}
 		const body = await readBody(request, maxBytesFor(purpose.data));
-		if (!body.ok) return jsonError(body.status, body.message);
+		if (!body.ok) return refuse(body.status, body.message);
 		bytes = body.bytes;
 	}
 
