@@ -158,7 +158,8 @@ describe('round 2 and the end', () => {
 		const finding = { code: 'spacing', severity: 'error', pieces: ['a-u1-p1'], measured: 2.4, limit: 2, message: 'too far from its unit' };
 		await testDb()('game_moves').insert([
 			{ game_id: t1.game_id, seq: 1, kind: 'refused', actor: a, side: 'a', round: 1, payload: '{}', report: JSON.stringify({ verdict: 'illegal', pieces: {}, findings: [finding], summaries: { objectives: [], rings: [] } }) },
-			{ game_id: t1.game_id, seq: 2, kind: 'ruling-request', actor: a, side: 'a', round: 1, payload: '{}' }
+			{ game_id: t1.game_id, seq: 2, kind: 'ruling-request', actor: a, side: 'a', round: 1, payload: JSON.stringify({ moveSeq: 1, note: 'was that 2 in?' }) },
+			{ game_id: t1.game_id, seq: 3, kind: 'ruling', actor: organiser.id, side: null, round: 1, payload: JSON.stringify({ requestSeq: 2, decision: 'upheld' }) }
 		]);
 		const all = await (await organiser.client.get(`/clubs/${clubId}/archive`)).text();
 		expect(all).toContain(`/games/${t1.game_id}`);
@@ -169,12 +170,20 @@ describe('round 2 and the end', () => {
 		expect(unruled).not.toContain(`/games/${t1.game_id}"`);
 		const byPlayer = await (await organiser.client.get(`/clubs/${clubId}/archive?player=${organiser.id}`)).text();
 		expect(byPlayer).toContain('0 logged games');
+		// Round 1's bye player had no game then, and must play in round 2: exactly one game.
+		const byeOfRound1 = (await pairingsOf(1))[1].player_a;
+		const oneGame = await (await organiser.client.get(`/clubs/${clubId}/archive?player=${byeOfRound1}&event=${eventId}`)).text();
+		expect(oneGame).toMatch(/>1 logged game</);
+		expect(await (await organiser.client.get(`/clubs/${clubId}/archive?from=2999-01-01`)).text()).toContain('0 logged games');
+		expect(await (await organiser.client.get(`/clubs/${clubId}/archive?profile=Table%20Standard`)).text()).toContain(`/games/${t1.game_id}/replay`);
+		expect(await (await organiser.client.get(`/clubs/${clubId}/archive?profile=Custom`)).text()).toContain('0 logged games');
 
 		const csv = (await (await organiser.client.get(`/api/v1/clubs/${clubId}/statistics.csv`)).text()).split('\r\n');
 		expect(csv).toContain('finding,spacing,,1');
 		expect(csv).toContain('refused-by,spacing,,1');
 		const ev = await testDb()('events').where({ id: eventId }).first('name');
 		expect(csv).toContain(`rulings-per-event,${ev.name},2,1`);
+		expect(csv).toContain(`rulings-given-per-event,${ev.name},2,1`);
 		expect(csv.filter((l) => l.startsWith('rulings-per-game,') && l.endsWith(',1'))).toHaveLength(1);
 	});
 });

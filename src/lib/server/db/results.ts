@@ -144,7 +144,10 @@ export interface ArchiveGame {
 	players: string;
 	moves: number;
 	refused: number;
+	/** ruling requests (disputes) raised at the table */
 	rulings: number;
+	/** rulings a judge gave */
+	ruled: number;
 }
 
 export async function archive(clubId: number, f: ArchiveFilter, trx?: Db): Promise<ArchiveGame[]> {
@@ -163,7 +166,8 @@ export async function archive(clubId: number, f: ArchiveFilter, trx?: Db): Promi
 			),
 			q.raw("(select count(*) from game_moves m where m.game_id = g.id and m.kind = 'move')::int as moves"),
 			q.raw("(select count(*) from game_moves m where m.game_id = g.id and m.kind = 'refused')::int as refused"),
-			q.raw("(select count(*) from game_moves m where m.game_id = g.id and m.kind = 'ruling-request')::int as rulings")
+			q.raw("(select count(*) from game_moves m where m.game_id = g.id and m.kind = 'ruling-request')::int as rulings"),
+			q.raw("(select count(*) from game_moves m where m.game_id = g.id and m.kind = 'ruling')::int as ruled")
 		)
 		.orderBy('g.created_at', 'desc')
 		.limit(500);
@@ -180,8 +184,8 @@ export async function archiveChoices(clubId: number, trx?: Db): Promise<{ events
 export interface Statistics {
 	findings: { code: string; count: number }[];
 	refusedBy: { code: string; count: number }[];
-	rulingsPerEvent: { eventId: number | null; eventName: string; rulings: number; games: number }[];
-	perGame: { id: number; title: string; moves: number; refused: number; rulings: number }[];
+	rulingsPerEvent: { eventId: number | null; eventName: string; rulings: number; ruled: number; games: number }[];
+	perGame: { id: number; title: string; moves: number; refused: number; rulings: number; ruled: number }[];
 }
 
 export async function statistics(clubId: number, f: ArchiveFilter, trx?: Db): Promise<Statistics> {
@@ -201,11 +205,12 @@ export async function statistics(clubId: number, f: ArchiveFilter, trx?: Db): Pr
 		findingCounts(['refused']).whereRaw("coalesce(f->>'severity', 'error') = 'error'"),
 		archive(clubId, f, trx)
 	]);
-	const byEvent = new Map<string, { eventId: number | null; eventName: string; rulings: number; games: number }>();
+	const byEvent = new Map<string, Statistics['rulingsPerEvent'][number]>();
 	for (const g of perGame) {
 		const key = String(g.eventId ?? 'none');
-		const row = byEvent.get(key) ?? { eventId: g.eventId, eventName: g.eventName ?? 'Friendly games', rulings: 0, games: 0 };
+		const row = byEvent.get(key) ?? { eventId: g.eventId, eventName: g.eventName ?? 'Friendly games', rulings: 0, ruled: 0, games: 0 };
 		row.rulings += g.rulings;
+		row.ruled += g.ruled;
 		row.games += 1;
 		byEvent.set(key, row);
 	}
@@ -213,7 +218,7 @@ export async function statistics(clubId: number, f: ArchiveFilter, trx?: Db): Pr
 		findings,
 		refusedBy,
 		rulingsPerEvent: [...byEvent.values()].sort((a, b) => b.rulings - a.rulings || a.eventName.localeCompare(b.eventName)),
-		perGame: perGame.map((g) => ({ id: g.id, title: g.title, moves: g.moves, refused: g.refused, rulings: g.rulings }))
+		perGame: perGame.map((g) => ({ id: g.id, title: g.title, moves: g.moves, refused: g.refused, rulings: g.rulings, ruled: g.ruled }))
 	};
 }
 

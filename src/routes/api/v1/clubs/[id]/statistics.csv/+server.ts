@@ -18,7 +18,10 @@ export const GET: RequestHandler = async ({ locals, params, url }) => {
 	const rows = [
 		...s.findings.map((f) => ['finding', f.code, '', f.count]),
 		...s.refusedBy.map((f) => ['refused-by', f.code, '', f.count]),
-		...s.rulingsPerEvent.map((e) => ['rulings-per-event', e.eventName, e.games, e.rulings]),
+		...s.rulingsPerEvent.flatMap((e) => [
+			['rulings-per-event', e.eventName, e.games, e.rulings],
+			['rulings-given-per-event', e.eventName, e.games, e.ruled]
+		]),
 		...s.perGame.flatMap((g) => [
 			['moves-per-game', `#${g.id} ${g.title}`, g.id, g.moves],
 			['refused-per-game', `#${g.id} ${g.title}`, g.id, g.refused],
