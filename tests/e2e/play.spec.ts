@@ -105,14 +105,20 @@ test('two tablets: a drag into keep-out is flagged, a legal move is seen live an
 	await expect(b.getByTestId('join-game')).toContainText('invites you to play side B');
 	await b.getByRole('button', { name: 'Join the game' }).click();
 	await expect(b).toHaveURL(/\/games\/\d+$/);
+	// the screen is live (hydrated, event stream open) before anything is chosen on it
+	await expect(b.getByTestId('live-status')).toContainText('live');
+	await b.locator('select#roster-b').selectOption({ label: 'Thornwake vanguard (4 units)' });
+	await expect(b.getByRole('button', { name: 'Bring this roster' })).toBeEnabled();
 	await b.getByRole('button', { name: 'Bring this roster' }).click();
 	await expect(b.getByTestId('turn-status')).toContainText('Deployment');
 
 	// --- deployment by dragging from the roster panel (Ada's screen follows live) -----------
 	await expect(a.getByTestId('turn-status')).toContainText('Side A deploys');
 	await expect(a.getByTestId('board-canvas')).toHaveAttribute('data-ready', 'yes');
-	await deployUnit(a, 'a-u1', 22, 26);
-	await expect(a.getByTestId('deploy-a-u1')).toContainText('10 of 10 on the table');
+	// Ten 32 mm pieces and their 40 mm leader in rows 1.87 in apart about (22, 25); the leader
+	// (a-u1-l1) alone in the front row at (22, 26.87), its edge 0.34 in inside the zone.
+	await deployUnit(a, 'a-u1', 22, 25);
+	await expect(a.getByTestId('deploy-a-u1')).toContainText('11 of 11 on the table');
 	await a.getByRole('button', { name: 'End deployment' }).click();
 
 	await expect(b.getByTestId('turn-status')).toContainText('Side B deploys');
@@ -124,19 +130,23 @@ test('two tablets: a drag into keep-out is flagged, a legal move is seen live an
 	// --- Ada's turn: into the keep-out zone first, then a legal move -------------------------
 	await expect(a.getByTestId('turn-status')).toContainText("Round 1");
 	await expect(a.getByTestId('active-side')).toContainText("Side A's turn");
-	await a.getByTestId('board-canvas').scrollIntoViewIfNeeded();
-	// a-u1-p8 stands mid front row at (22, 26.78); b-u4-p3 at (22, 33.29) (the formations' layout).
-	const p8 = await boardPoint(a, 22, 26.78);
-	await drag(a, p8, await boardPoint(a, 22, 31.4));
+	await a.evaluate(() => window.scrollTo(0, 0));
+	// The leader a-u1-l1 stands at (22, 26.87); Tomas's b-u4-p3 mid front row at (22, 33.29).
+	// To (22, 31.4): 4.53 in, ending 1.89 − 0.79 − 0.56 = 0.54 in from b-u4-p3 (hand-worked).
+	const leader = await boardPoint(a, 22, 26.875);
+	await drag(a, leader, await boardPoint(a, 22, 31.4));
 	await expect(a.getByTestId('findings')).toContainText('from enemy b-u4-p3');
 	await expect(a.getByTestId('live-verdict')).toContainText('Not legal');
-	await expect(a.getByTestId('allowance-readout')).toContainText(/a-u1-p8: 4\.\d\d in of 6/);
+	await expect(a.getByTestId('allowance-readout')).toContainText(/a-u1-l1: 4\.5\d in of 6/);
 	await a.screenshot({ path: shot('keep-out-finding') });
 
 	await a.getByRole('button', { name: 'Reset' }).click();
-	await drag(a, p8, await boardPoint(a, 22, 28));
+	// The page may have scrolled to reach the button: back to the top, and measure the board again.
+	await a.evaluate(() => window.scrollTo(0, 0));
+	// 0.63 in forward keeps it within 2 in of two unit-mates (1.08 and 1.71 in, hand-worked).
+	await drag(a, await boardPoint(a, 22, 26.875), await boardPoint(a, 22, 27.5));
 	await expect(a.getByTestId('live-verdict')).toContainText('Legal so far');
-	await expect(a.getByTestId('allowance-readout')).toContainText(/a-u1-p8: 1\.\d\d in of 6/);
+	await expect(a.getByTestId('allowance-readout')).toContainText(/a-u1-l1: 0\.6\d in of 6/);
 	await a.getByRole('button', { name: 'Submit move' }).click();
 	await expect(a.getByTestId('pending-move')).toContainText('awaits acceptance');
 	await expect(a.getByTestId('summaries')).toContainText('Totals');
@@ -154,13 +164,13 @@ test('two tablets: a drag into keep-out is flagged, a legal move is seen live an
 
 	// --- the measuring tool: two pieces, edge to edge ----------------------------------------
 	await a.getByRole('button', { name: 'Measure' }).click();
-	await a.getByTestId('board-canvas').scrollIntoViewIfNeeded();
-	const from = await boardPoint(a, 22, 28);
+	await a.evaluate(() => window.scrollTo(0, 0));
+	const from = await boardPoint(a, 22, 27.5);
 	const to = await boardPoint(a, 22, 33.29);
 	await a.mouse.click(from.x, from.y);
 	await a.mouse.click(to.x, to.y);
-	// (33.29 − 28) − 0.63 − 0.56 = 4.10 in between a 32 mm and a 28.5 mm base (hand-worked)
-	await expect(a.getByTestId('measure-reading')).toContainText(/4\.(09|10|11) in edge to edge/);
+	// (33.29 − 27.5) − 0.79 − 0.56 = 4.44 in between a 40 mm and a 28.5 mm base (hand-worked)
+	await expect(a.getByTestId('measure-reading')).toContainText(/4\.4[345] in edge to edge/);
 	await a.context().close();
 	await b.context().close();
 });

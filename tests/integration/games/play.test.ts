@@ -286,6 +286,12 @@ describe('the move flow', () => {
 		expect(end.json.game.state).toMatchObject({ round: 1, activeSide: 'b', movedUnits: [] });
 	});
 
+	it('a reconnecting stream that names the last seq it saw is told the current seq at once', async () => {
+		const events = await b.c.send('GET', g('/events'), undefined, { accept: 'text/event-stream', 'last-event-id': String(seq - 2) });
+		expect(events.status).toBe(200);
+		expect(await waitForEvent(events, seq, 2000)).toBe(seq);
+	});
+
 	it('keeps a gap-free, unique seq per game in the log', async () => {
 		const log = await call(b.c, 'GET', g('/log'));
 		expect(log.json.seq).toBe(seq);
