@@ -78,7 +78,10 @@ export function gridReach(table: RouteTable, pieceId: string, kind: MoveKind, di
 			member: (o.leaderOf ?? o.unit) === unit,
 			bulky: bulky.has(o.class)
 		}))
-		.filter((e) => Math.hypot(e.o.at.x - sx, e.o.at.y - sy) < budgetIn + 10);
+		.map((e) => ({ ...e, bound: localFootprint(e.o.footprint, eps).rMaxIn }))
+		// a piece matters to a cell within the budget only within keep-out + both footprints
+		.filter((e) => Math.hypot(e.o.at.x - sx, e.o.at.y - sy) - e.bound < budgetIn + profile.keepOut + rho + 1);
+	const reachOf = profile.keepOut + eps + rho + 0.5;
 
 	const h = cellIn;
 	const x0 = Math.max(0, sx - budgetIn - 2 * h);
@@ -103,8 +106,9 @@ export function gridReach(table: RouteTable, pieceId: string, kind: MoveKind, di
 			let pass = true;
 			let end = true;
 			for (const e of others) {
+				// centre distance minus both bounding radii is a lower bound of the gap
+				if (Math.hypot(e.o.at.x - x, e.o.at.y - y) - e.bound > reachOf) continue;
 				const d = signedDistance(outer, e.set);
-				if (d > profile.keepOut + eps + 1 && d > 1) continue;
 				if (!flies && !e.member) {
 					if (e.enemy && (kind === 'move' || kind === 'dash') && d <= profile.keepOut + eps) pass = false;
 					if (e.enemy && d < -eps) pass = false;
