@@ -49,4 +49,5 @@ $(node_modules/.bin/tsx -e "import('./seeds/data/demo.ts').then(m => m.DEMO_PEOP
 MSG
 tail -f "$DATA/app.log" &
 STARTED_PIDS+=("$!")
-wait "${STARTED_PIDS[@]:0:2}"
+# Run until Ctrl-C, or until any service stops by itself; the EXIT trap stops the rest.
+wait -n "${STARTED_PIDS[@]}" || true

@@ -2,14 +2,18 @@
 import type { PageServerLoad } from './$types';
 import { clubs } from '$lib/server/db/clubs';
 import { rosters } from '$lib/server/db/rosters';
+import { games } from '$lib/server/db/games';
+import { listForUser as entriesForUser } from '$lib/server/db/entries';
 import { error } from '@sveltejs/kit';
 
 export const load: PageServerLoad = async ({ locals }) => {
 	if (!locals.user) error(401, 'Sign in first');
-	const [myClubs, myRosters] = await Promise.all([
-		clubs.listForUser(locals.user.id),
-		rosters.listForOwner(locals.user.id)
+	const userId = locals.user.id;
+	const [myClubs, myRosters, myGames, myEvents] = await Promise.all([
+		clubs.listForUser(userId),
+		rosters.listForOwner(userId),
+		games.listForUser(userId),
+		entriesForUser(userId)
 	]);
-	// Games and events arrive with the table and events features; until then they are empty.
-	return { clubs: myClubs, rosters: myRosters, games: [] as { id: number; title: string }[], events: [] as { id: number; name: string }[] };
+	return { clubs: myClubs, rosters: myRosters, games: myGames.slice(0, 8), events: myEvents };
 };
