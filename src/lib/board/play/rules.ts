@@ -217,7 +217,14 @@ export function propose(ctx: Ctx, move: ProposeMove): StepResult {
 	if (!parsed.success) {
 		return refuse(400, 'The move does not fit the referee\'s request', parsed.error.issues.map((i) => ({ path: i.path.map(String), message: i.message })));
 	}
-	const report = checkMove(request);
+	let report: CheckReport;
+	try {
+		report = checkMove(request);
+	} catch (e) {
+		// A request the schema accepts should always check; if the engine still fails, say so
+		// plainly rather than answer 500, and log nothing.
+		return refuse(400, `The referee could not check this move: ${e instanceof Error ? e.message : String(e)}`);
+	}
 	const payload: Record<string, unknown> = { unit: move.unit, kind: move.kind, paths: paths ?? {} };
 	if (die !== undefined) payload.die = die;
 

@@ -59,7 +59,9 @@ export const GET: RequestHandler = async ({ locals, params, request, url }) => {
 			request.signal.addEventListener('abort', () => close());
 			send('retry: 2000\n\n');
 			// Subscribe before reading the current seq, so no append can fall between the two.
-			unsubscribe = await live.subscribe(id, sendSeq);
+			const off = await live.subscribe(id, sendSeq);
+			if (!open) return off(); // the client left while we subscribed
+			unsubscribe = off;
 			untrack = live.trackStream(() => close());
 			const game = await games.find(id);
 			if (game) sendSeq(game.seq);
