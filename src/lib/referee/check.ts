@@ -263,7 +263,8 @@ export function runCheck(request: CheckRequest): CheckReport {
 		}
 
 		// ---- End of the path (and of an unmoved piece of the unit)
-		worstOffBoard = Math.max(worstOffBoard, offBoardBy(m.endBox, widthIn, depthIn));
+		// the exact box of the footprint, not the pruning box of its circumscribed circle
+		worstOffBoard = Math.max(worstOffBoard, offBoardBy(boxOf(m.end.pts, m.end.r), widthIn, depthIn));
 		if (worstOffBoard > eps) {
 			add(finding('off-board', [m.id], worstOffBoard, 0, `${m.id} goes ${inches(worstOffBoard)} in off the table; its footprint must stay on the board`));
 		}

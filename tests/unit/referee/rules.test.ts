@@ -190,6 +190,17 @@ describe('path of a non-flier', () => {
 		expect(edge(EPS + NUDGE).findings[0].measured).toBeCloseTo(EPS + NUDGE, 12);
 		expect(errors(edge(EPS - NUDGE))).toEqual([]);
 	});
+	it('[off-board] an oval ends by the edge: only its own extent counts, not its circumscribed circle', () => {
+		// 60 × 35 mm oval, facing 0: half-width across the y axis is 17.5 / 25.4 in
+		const halfWidthIn = 17.5 / 25.4;
+		const oval = { shape: 'oval' as const, lengthMm: 60, widthMm: 35 };
+		const endY = (gap: number) =>
+			checkMove(
+				request([piece('m', 'red', 'u1', 7, 15, { allowance: 10, footprint: oval })], { unit: 'u1', kind: 'move', paths: { m: [{ x: 7, y: 20 - halfWidthIn - gap, facing: 0 }] } }, { width: 20, depth: 20 })
+			);
+		expect(errors(endY(0.01))).toEqual([]);
+		expect(errors(endY(-EPS - 0.01))).toEqual(['off-board']);
+	});
 });
 
 describe('end of the move', () => {
