@@ -1,0 +1,176 @@
+// Load benchmark (npm run bench:load): the check API and the commit route of a running app,
+// driven by autocannon from this process over loopback. Prints throughput, p50 and p99 and
+// whether the targets hold: check ≥ 500 requests/s at p99 ≤ 10 ms, commit p99 ≤ 25 ms.
+//
+// Start the app first (`npm start`, http://127.0.0.1:3000 with the demo), or point
+// BENCH_BASE_URL at another one (the test server of `npm test` works too). The bench signs in
+// as a demo player (BENCH_EMAIL / BENCH_PASSWORD), saves a roster and sets up its own
+// one-tablet games, so it never touches anyone's game.
+import autocannon from 'autocannon';
+import { LAYOUT, UNITS_A } from '../unit/games/fixtures';
+
+const BASE = (process.env.BENCH_BASE_URL ?? 'http://127.0.0.1:3000').replace(/\/+$/, '');
+const EMAIL = process.env.BENCH_EMAIL ?? 'ada@demo.inchwarden.test';
+const PASSWORD = process.env.BENCH_PASSWORD ?? 'tabletop-demo-1';
+const SECONDS = Number(process.env.BENCH_SECONDS ?? 10);
+const CHECK_CONNECTIONS = Number(process.env.BENCH_CHECK_CONNECTIONS ?? 10);
+const COMMIT_CONNECTIONS = Number(process.env.BENCH_COMMIT_CONNECTIONS ?? 4);
+
+const TARGET = { checkRps: 500, checkP99Ms: 10, commitP99Ms: 25 };
+
+// A check request of a small skirmish: two units a side, a crate, one three-leg move.
+const foot = (id: string, side: string, unit: string, x: number, y: number) => ({
+	id,
+	side,
+	unit,
+	class: 'foot',
+	allowance: 6,
+	footprint: { shape: 'round', diameterMm: 32 },
+	at: { x, y, facing: 90 }
+});
+const CHECK_BODY = JSON.stringify({
+	board: { width: 44, depth: 60, terrain: [{ id: 'crate', kind: 'block', outline: [[20, 20], [24, 20], [24, 24], [20, 24]], height: 2 }] },
+	pieces: [
+		foot('a1', 'red', 'u1', 10, 10),
+		foot('a2', 'red', 'u1', 12, 10),
+		foot('a3', 'red', 'u1', 14, 10),
+		foot('b1', 'red', 'u2', 30, 10),
+		foot('c1', 'blue', 'u3', 10, 40),
+		foot('c2', 'blue', 'u3', 12, 40),
+		foot('d1', 'blue', 'u4', 30, 40)
+	],
+	move: {
+		unit: 'u1',
+		kind: 'move',
+		paths: { a1: [{ x: 11, y: 12 }, { x: 12, y: 14 }], a2: [{ x: 13, y: 12 }, { x: 14, y: 14 }], a3: [{ x: 15, y: 12 }, { x: 16, y: 14 }] }
+	}
+});
+
+let cookie = '';
+async function api(method: string, path: string, body?: unknown): Promise<{ status: number; json: any }> { // eslint-disable-line @typescript-eslint/no-explicit-any
+	const res = await fetch(BASE + path, {
+		method,
+		headers: { 'content-type': 'application/json', accept: 'application/json', origin: BASE, ...(cookie ? { cookie } : {}) },
+		body: body === undefined ? undefined : JSON.stringify(body)
+	});
+	const set = res.headers.getSetCookie().find((c) => c.startsWith('inchwarden_session='));
+	if (set) cookie = set.split(';')[0];
+	const text = await res.text();
+	return { status: res.status, json: text ? JSON.parse(text) : null };
+}
+
+function must(r: { status: number; json: unknown }, what: string, ok = [200, 201]): void {
+	if (!ok.includes(r.status)) throw new Error(`${what}: ${r.status} ${JSON.stringify(r.json).slice(0, 300)}`);
+}
+
+interface Table {
+	id: number;
+	seq: number;
+	pending: boolean;
+}
+
+/** A one-tablet game in round 1, side A to move: the commits alternate move and take-back. */
+async function newTable(rosterId: number, n: number): Promise<Table> {
+	const g = await api('POST', '/api/v1/games', { title: `Load bench table ${n}`, layout: LAYOUT, opponent: { mode: 'shared' }, rosterA: rosterId, rosterB: rosterId });
+	must(g, 'create a game');
+	const id = g.json.id as number;
+	let seq = (await api('GET', `/api/v1/games/${id}`)).json.game.seq as number;
+	const step = async (path: string, body: object) => {
+		const r = await api('POST', `/api/v1/games/${id}${path}`, { seq, ...body });
+		must(r, path);
+		seq = r.json.seq;
+	};
+	await step('/deploy', { side: 'a', placements: [{ piece: 'a-u1-p1', at: { x: 10, y: 6 } }, { piece: 'a-u1-p2', at: { x: 12, y: 6 } }, { piece: 'a-u1-p3', at: { x: 14, y: 6 } }] });
+	await step('/end-turn', {});
+	await step('/deploy', { side: 'b', placements: [{ piece: 'b-u1-p1', at: { x: 10, y: 54 } }, { piece: 'b-u1-p2', at: { x: 12, y: 54 } }, { piece: 'b-u1-p3', at: { x: 14, y: 54 } }] });
+	await step('/end-turn', {});
+	return { id, seq, pending: false };
+}
+
+const MOVE = { unit: 'a-u1', kind: 'move', paths: { 'a-u1-p1': [{ x: 10, y: 10 }], 'a-u1-p2': [{ x: 12, y: 10 }], 'a-u1-p3': [{ x: 14, y: 10 }] } };
+
+interface Figures {
+	rps: number;
+	p50: number;
+	p99: number;
+	requests: number;
+	non2xx: number;
+	errors: number;
+}
+
+function figures(r: autocannon.Result): Figures {
+	return { rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, requests: r.requests.total, non2xx: r.non2xx, errors: r.errors + r.timeouts };
+}
+
+function run(opts: autocannon.Options): Promise<autocannon.Result> {
+	return new Promise((resolve, reject) => {
+		autocannon(opts, (err, result) => (err ? reject(err) : resolve(result)));
+	});
+}
+
+function line(name: string, f: Figures, verdict: string): string {
+	return `${name.padEnd(34)} ${f.rps.toFixed(0).padStart(6)} req/s   p50 ${f.p50.toFixed(2).padStart(6)} ms   p99 ${f.p99.toFixed(2).padStart(6)} ms   ${String(f.requests).padStart(6)} requests, ${f.non2xx} not 2xx, ${f.errors} errors   ${verdict}`;
+}
+
+async function main(): Promise<void> {
+	try {
+		await fetch(BASE + '/sign-in');
+	} catch {
+		console.error(`No app answers at ${BASE}: start it with \`npm start\` (or set BENCH_BASE_URL).`);
+		process.exit(2);
+	}
+	must(await api('POST', '/api/v1/session', { email: EMAIL, password: PASSWORD }), `sign in as ${EMAIL}`);
+	const roster = await api('POST', '/api/v1/rosters', { name: 'Load bench list', force: 'Bench', units: [UNITS_A[0]] });
+	must(roster, 'save a roster');
+	const rosterId = roster.json.roster.id as number;
+	console.log(`Inchwarden load bench against ${BASE}: ${SECONDS} s per run, autocannon ${CHECK_CONNECTIONS} connections (check), ${COMMIT_CONNECTIONS} (commit)\n`);
+
+	const checkOpts = { url: `${BASE}/api/v1/check`, method: 'POST' as const, headers: { 'content-type': 'application/json' }, body: CHECK_BODY };
+	await run({ ...checkOpts, connections: 4, duration: 2 }); // warm-up: JIT, pool
+	const checkMax = figures(await run({ ...checkOpts, connections: CHECK_CONNECTIONS, duration: SECONDS }));
+	const checkAtTarget = figures(await run({ ...checkOpts, connections: CHECK_CONNECTIONS, duration: SECONDS, overallRate: TARGET.checkRps }));
+
+	// Commits: every connection works its own game, naming the seq of the last answer.
+	const tables: Table[] = [];
+	for (let i = 0; i < COMMIT_CONNECTIONS + 1; i++) tables.push(await newTable(rosterId, i));
+	const free = [...tables];
+	let wrong = 0;
+	const commitRequest = {
+		method: 'POST' as const,
+		setupRequest: (req: any, ctx: any) => { // eslint-disable-line @typescript-eslint/no-explicit-any
+			const t = free.shift()!;
+			ctx.table = t;
+			req.path = `/api/v1/games/${t.id}/${t.pending ? 'take-back' : 'moves'}`;
+			req.body = JSON.stringify(t.pending ? { seq: t.seq } : { seq: t.seq, ...MOVE });
+			return req;
+		},
+		onResponse: (status: number, body: string, ctx: any) => { // eslint-disable-line @typescript-eslint/no-explicit-any
+			const t = ctx.table as Table;
+			if (status === 200 || status === 201) {
+				t.seq = JSON.parse(body).seq;
+				t.pending = !t.pending;
+			} else wrong += 1;
+			free.push(t);
+		}
+	};
+	const commitOpts = { url: BASE, headers: { 'content-type': 'application/json', cookie, origin: BASE }, requests: [commitRequest] };
+	await run({ ...commitOpts, connections: COMMIT_CONNECTIONS, duration: 2 });
+	const commitMax = figures(await run({ ...commitOpts, connections: COMMIT_CONNECTIONS, duration: SECONDS }));
+	const commitAt100 = figures(await run({ ...commitOpts, connections: COMMIT_CONNECTIONS, duration: SECONDS, overallRate: 100 }));
+	if (wrong > 0) console.log(`(${wrong} commits were not acknowledged: see the not-2xx counts)`);
+
+	const ok = (b: boolean) => (b ? 'target met' : 'TARGET MISSED');
+	const checkMet = checkAtTarget.rps >= TARGET.checkRps * 0.98 && checkAtTarget.p99 <= TARGET.checkP99Ms && checkAtTarget.non2xx === 0;
+	const commitMet = commitMax.p99 <= TARGET.commitP99Ms && commitMax.non2xx === 0 && commitAt100.p99 <= TARGET.commitP99Ms;
+	console.log(line(`check, as fast as it goes`, checkMax, checkMax.rps >= TARGET.checkRps ? `≥ ${TARGET.checkRps} req/s` : `< ${TARGET.checkRps} req/s`));
+	console.log(line(`check, offered ${TARGET.checkRps} req/s`, checkAtTarget, ok(checkMet) + ` (≥ ${TARGET.checkRps} req/s at p99 ≤ ${TARGET.checkP99Ms} ms)`));
+	console.log(line(`commit (move/take-back), flat out`, commitMax, ok(commitMax.p99 <= TARGET.commitP99Ms) + ` (p99 ≤ ${TARGET.commitP99Ms} ms)`));
+	console.log(line(`commit, offered 100 req/s`, commitAt100, ok(commitAt100.p99 <= TARGET.commitP99Ms) + ` (p99 ≤ ${TARGET.commitP99Ms} ms)`));
+	console.log(`\ncheck: ${ok(checkMet)}; commit: ${ok(commitMet)}`);
+	if (process.env.BENCH_JSON) console.log(JSON.stringify({ checkMax, checkAtTarget, commitMax, commitAt100 }));
+}
+
+main().catch((e) => {
+	console.error(e);
+	process.exit(1);
+});
