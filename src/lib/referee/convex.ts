@@ -124,19 +124,59 @@ export function doubleArea(p: number[]): number {
 	return s;
 }
 
+/**
+ * Squared distance from (px, py) to the segment, by the very steps pointSegmentDistance takes
+ * (so the two agree on which of several segments is nearest, to rounding).
+ */
+function pointSegmentDistanceSq(px: number, py: number, ax: number, ay: number, bx: number, by: number): number {
+	const dx = bx - ax;
+	const dy = by - ay;
+	const len2 = dx * dx + dy * dy;
+	let t = len2 > 0 ? ((px - ax) * dx + (py - ay) * dy) / len2 : 0;
+	if (t < 0) t = 0;
+	else if (t > 1) t = 1;
+	const qx = px - (ax + t * dx);
+	const qy = py - (ay + t * dy);
+	return qx * qx + qy * qy;
+}
+
+/**
+ * Squared figures within this relative margin of the least are re-measured with Math.hypot:
+ * far above the few ulps by which a square and a hypot can disagree on order, so the least
+ * hypot over all candidates is always among them (bit for bit what measuring all would give).
+ */
+const SQ_MARGIN = 1e-9;
+
+/** Reused scratch for squared edge distances (the engine is synchronous and not re-entrant). */
+let scratch = new Float64Array(1024);
+function scratchOf(n: number): Float64Array {
+	if (scratch.length < n) scratch = new Float64Array(Math.max(n, 2 * scratch.length));
+	return scratch;
+}
+
 /** Signed distance from the point to the convex CCW polygon: negative inside (depth to the edge). */
 export function signedDistancePointConvex(px: number, py: number, p: number[]): number {
 	const n = p.length / 2;
 	if (n === 1) return Math.hypot(px - p[0], py - p[1]);
 	let inside = true;
-	let d = Infinity;
+	// squares pick the nearest edges cheaply; only those near the least are measured by hypot
+	const sq = scratchOf(n);
+	let least = Infinity;
 	for (let i = 0, k = n - 1; i < n; k = i++) {
 		const x0 = p[2 * k];
 		const y0 = p[2 * k + 1];
 		const x1 = p[2 * i];
 		const y1 = p[2 * i + 1];
 		if (cross(x1 - x0, y1 - y0, px - x0, py - y0) < 0) inside = false;
-		const e = pointSegmentDistance(px, py, x0, y0, x1, y1);
+		const e = pointSegmentDistanceSq(px, py, x0, y0, x1, y1);
+		sq[i] = e;
+		if (e < least) least = e;
+	}
+	const cut = least * (1 + SQ_MARGIN) + 1e-300;
+	let d = Infinity;
+	for (let i = 0, k = n - 1; i < n; k = i++) {
+		if (!(sq[i] <= cut)) continue;
+		const e = pointSegmentDistance(px, py, p[2 * k], p[2 * k + 1], p[2 * i], p[2 * i + 1]);
 		if (e < d) d = e;
 	}
 	// A flat (zero-area) set has no inside: a point on its line is at distance d, not −d.
@@ -197,8 +237,10 @@ export function signedDistance(a: Rounded, b: Rounded): number {
 function segmentPolygonGap(seg: number[], p: number[]): number {
 	const [ax, ay, bx, by] = seg;
 	const n = p.length / 2;
-	let d = Infinity;
 	let insideA = true;
+	// as in signedDistancePointConvex: squares first, hypot only for those near the least
+	const sq = scratchOf(3 * n);
+	let least = Infinity;
 	for (let i = 0, k = n - 1; i < n; k = i++) {
 		const x0 = p[2 * k];
 		const y0 = p[2 * k + 1];
@@ -206,14 +248,31 @@ function segmentPolygonGap(seg: number[], p: number[]): number {
 		const y1 = p[2 * i + 1];
 		if (cross(x1 - x0, y1 - y0, ax - x0, ay - y0) < 0) insideA = false;
 		if (segmentsCross(ax, ay, bx, by, x0, y0, x1, y1)) return 0;
-		const e = Math.min(
-			pointSegmentDistance(ax, ay, x0, y0, x1, y1),
-			pointSegmentDistance(bx, by, x0, y0, x1, y1),
-			pointSegmentDistance(x1, y1, ax, ay, bx, by)
-		);
+		const e0 = pointSegmentDistanceSq(ax, ay, x0, y0, x1, y1);
+		const e1 = pointSegmentDistanceSq(bx, by, x0, y0, x1, y1);
+		const e2 = pointSegmentDistanceSq(x1, y1, ax, ay, bx, by);
+		sq[3 * i] = e0;
+		sq[3 * i + 1] = e1;
+		sq[3 * i + 2] = e2;
+		if (e0 < least) least = e0;
+		if (e1 < least) least = e1;
+		if (e2 < least) least = e2;
+	}
+	if (insideA && doubleArea(p) > 1e-18) return 0;
+	const cut = least * (1 + SQ_MARGIN) + 1e-300;
+	let d = Infinity;
+	for (let i = 0, k = n - 1; i < n; k = i++) {
+		const x0 = p[2 * k];
+		const y0 = p[2 * k + 1];
+		const x1 = p[2 * i];
+		const y1 = p[2 * i + 1];
+		let e = Infinity;
+		if (sq[3 * i] <= cut) e = Math.min(e, pointSegmentDistance(ax, ay, x0, y0, x1, y1));
+		if (sq[3 * i + 1] <= cut) e = Math.min(e, pointSegmentDistance(bx, by, x0, y0, x1, y1));
+		if (sq[3 * i + 2] <= cut) e = Math.min(e, pointSegmentDistance(x1, y1, ax, ay, bx, by));
 		if (e < d) d = e;
 	}
-	return insideA && doubleArea(p) > 1e-18 ? 0 : d;
+	return d;
 }
 
 /** Even–odd point in polygon (outline as a flat ring, closing edge implied). */
@@ -233,8 +292,17 @@ export function pointInPolygon(px: number, py: number, ring: number[]): boolean 
 /** Signed distance from a point to a simple polygon's outline: negative inside. */
 export function signedDistancePointPolygon(px: number, py: number, ring: number[]): number {
 	const n = ring.length / 2;
+	const sq = scratchOf(n);
+	let least = Infinity;
+	for (let i = 0, k = n - 1; i < n; k = i++) {
+		const e = pointSegmentDistanceSq(px, py, ring[2 * k], ring[2 * k + 1], ring[2 * i], ring[2 * i + 1]);
+		sq[i] = e;
+		if (e < least) least = e;
+	}
+	const cut = least * (1 + SQ_MARGIN) + 1e-300;
 	let d = Infinity;
 	for (let i = 0, k = n - 1; i < n; k = i++) {
+		if (!(sq[i] <= cut)) continue;
 		const e = pointSegmentDistance(px, py, ring[2 * k], ring[2 * k + 1], ring[2 * i], ring[2 * i + 1]);
 		if (e < d) d = e;
 	}
