@@ -2,7 +2,7 @@
 // that moves, and bounding-box indexes (flatbush) so each test only measures nearby things.
 import Flatbush from 'flatbush';
 import type { CheckRequest, PieceIn, Profile } from '../schemas/check';
-import { boxesMeet, type Box, type Rounded } from './convex';
+import { boxesMeet, signedDistancePointConvex, type Box, type Rounded } from './convex';
 import { localFootprint, place, type LocalFootprint } from './footprints';
 import { endPose, type PoseDeg } from './path-cost';
 import { mmToIn } from './profile';
@@ -28,8 +28,6 @@ export class ScenePiece {
 	readonly flies: boolean;
 	/** radius of a disk about the reference point that holds the footprint (for cheap pruning) */
 	readonly reachIn: number;
-	/** radius of a disk about the reference point inside the footprint (0 when unknown) */
-	readonly innerReachIn: number;
 	readonly startPose: PoseDeg;
 	readonly startBox: Box;
 	readonly endPose: PoseDeg;
@@ -53,15 +51,31 @@ export class ScenePiece {
 		this.bulky = bulky;
 		this.flies = src.flies === true;
 		this.reachIn = reachOf(src.footprint);
-		const fp = src.footprint;
-		// the oval's polygon lies inside the curve by at most its chord error, far below 1e-3
-		this.innerReachIn = fp.shape === 'round' ? this.reachIn : fp.shape === 'oval' ? mmToIn(Math.min(fp.lengthMm, fp.widthMm)) / 2 - 1e-3 : 0;
 		this.startPose = { x: src.at.x, y: src.at.y, facingDeg: src.at.facing ?? 0 };
 		this.endPose = moved ? endPose : this.startPose;
 		const r = this.reachIn;
 		this.startBox = { minX: src.at.x - r, minY: src.at.y - r, maxX: src.at.x + r, maxY: src.at.y + r };
 		this.endBox = moved ? { minX: endPose.x - r, minY: endPose.y - r, maxX: endPose.x + r, maxY: endPose.y + r } : this.startBox;
 	}
+
+	/**
+	 * Radius of a disk about the reference point inside the footprint; −Infinity when there is
+	 * none (a hull whose reference point lies outside it), so no pair is taken as surely close.
+	 */
+	get innerReachIn(): number {
+		if (this._innerReachIn !== null) return this._innerReachIn;
+		const fp = this.src.footprint;
+		let v: number;
+		if (fp.shape === 'round') v = this.reachIn;
+		// the oval's polygon lies inside the curve by at most its chord error, far below 1e-3
+		else if (fp.shape === 'oval') v = mmToIn(Math.min(fp.lengthMm, fp.widthMm)) / 2 - 1e-3;
+		else {
+			const sd = signedDistancePointConvex(0, 0, this.local.outer.pts);
+			v = sd <= 0 ? -sd - 1e-9 : -Infinity;
+		}
+		return (this._innerReachIn = v);
+	}
+	private _innerReachIn: number | null = null;
 
 	get local(): LocalFootprint {
 		return (this._local ??= localFootprint(this.src.footprint, this.toleranceIn));

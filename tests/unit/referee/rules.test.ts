@@ -285,6 +285,22 @@ describe('group spacing [spacing]', () => {
 		const without = checkMove(request([piece('a1', 'red', 'u1', 5, 5), piece('a2', 'red', 'u1', 10, 5)], { unit: 'u1', kind: 'move', paths: { a1: [{ x: 5, y: 6 }] } }));
 		expect(codes(without)).toEqual(['spacing', 'spacing']);
 	});
+	it('measures a hull whose reference point lies outside it edge to edge, not by its reference point', () => {
+		// both reference points 1 in apart, the hulls facing away from each other: 3 in apart edge to edge
+		const offset = { shape: 'hull' as const, points: rect(2, 0, 3, 1) };
+		const hulls = (gap: number) =>
+			checkMove(
+				request(
+					[piece('h1', 'red', 'u1', 20, 10, { footprint: offset }), piece('h2', 'red', 'u1', 20 + gap, 10, { footprint: offset, facing: 180 })],
+					{ unit: 'u1', kind: 'move', paths: { h2: [{ x: 20 + gap, y: 10.5 }] } }
+				)
+			);
+		const apart = hulls(1);
+		expect(codes(apart)).toEqual(['spacing', 'spacing']);
+		expect(apart.findings[0].measured).toBeCloseTo(3, 12);
+		// 6.1 in apart at the reference points: the hulls are 0.1 in apart, well in range
+		expect(codes(hulls(6.1))).toEqual([]);
+	});
 	it('profile option: the unit must also form one connected group', () => {
 		const pieces = [0, 1, 2, 3].map((i) => piece(`a${i + 1}`, 'red', 'u1', 5 + 2 * i + (i >= 2 ? 4 : 0), 5));
 		const mv = { unit: 'u1', kind: 'move' as const, paths: { a1: [{ x: 5, y: 5.1 }] } };
