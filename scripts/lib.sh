@@ -32,7 +32,8 @@ apt_install() {
 ensure_deps() {
 	if [ ! -d node_modules ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
 		log "installing dependencies (npm ci)"
-		npm ci --no-audit --no-fund
+		# --include=dev: the build and the tests need them even when NODE_ENV=production
+		npm ci --include=dev --no-audit --no-fund
 	fi
 }
 
