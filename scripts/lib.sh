@@ -11,13 +11,16 @@ export PGPORT="${PGPORT:-54329}"
 DATA="$ROOT/.data"
 STARTED_PIDS=()
 STARTED_PG=0
+# Where the cluster lives: .data/ unless the postgres user cannot reach the checkout.
+PGHOME="$DATA"
 
 log() { printf '\033[1;32m[inchwarden]\033[0m %s\n' "$*"; }
 die() { printf '\033[1;31m[inchwarden]\033[0m %s\n' "$*" >&2; exit 1; }
 
 as_pg() {
 	# PostgreSQL refuses to run as root: run its tools as the postgres user then.
-	if [ "$(id -u)" = 0 ]; then runuser -u postgres -- "$@"; else "$@"; fi
+	# (from /, which the postgres user can always enter; every path given is absolute)
+	if [ "$(id -u)" = 0 ]; then (cd / && runuser -u postgres -- "$@"); else "$@"; fi
 }
 
 apt_install() {
@@ -54,27 +57,40 @@ ensure_pg_binaries() {
 	export PGBIN
 }
 
+pg_home() {
+	mkdir -p "$DATA"
+	if [ "$(id -u)" = 0 ] && ! runuser -u postgres -- test -x "$DATA" 2>/dev/null; then
+		# e.g. a checkout under /root: PostgreSQL runs as postgres and must be able to enter
+		# its data folder, so the cluster of this checkout lives under /var/tmp instead.
+		PGHOME="/var/tmp/inchwarden-$(printf %s "$ROOT" | md5sum | cut -c1-12)"
+		mkdir -p "$PGHOME"
+		chown postgres:postgres "$PGHOME"
+		log "the postgres user cannot enter $DATA: cluster kept in $PGHOME"
+	fi
+}
+
 pg_up() {
 	ensure_pg_binaries
-	mkdir -p "$DATA/run"
-	if [ ! -f "$DATA/pg/PG_VERSION" ]; then
+	pg_home
+	mkdir -p "$PGHOME/run"
+	if [ ! -f "$PGHOME/pg/PG_VERSION" ]; then
 		log "creating the PostgreSQL cluster in .data/pg"
-		mkdir -p "$DATA/pg"
-		if [ "$(id -u)" = 0 ]; then chown -R postgres:postgres "$DATA/pg" "$DATA/run"; fi
-		chmod 700 "$DATA/pg"
-		as_pg "$PGBIN/initdb" -D "$DATA/pg" -U postgres --auth=trust --encoding=UTF8 \
+		mkdir -p "$PGHOME/pg"
+		if [ "$(id -u)" = 0 ]; then chown -R postgres:postgres "$PGHOME/pg" "$PGHOME/run"; fi
+		chmod 700 "$PGHOME/pg"
+		as_pg "$PGBIN/initdb" -D "$PGHOME/pg" -U postgres --auth=trust --encoding=UTF8 \
 			--locale=C.UTF-8 >/dev/null
 	fi
-	if [ "$(id -u)" = 0 ]; then chown postgres:postgres "$DATA/run"; fi
-	if as_pg "$PGBIN/pg_ctl" -D "$DATA/pg" status >/dev/null 2>&1; then
+	if [ "$(id -u)" = 0 ]; then chown postgres:postgres "$PGHOME/run"; fi
+	if as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" status >/dev/null 2>&1; then
 		log "PostgreSQL already running on 127.0.0.1:$PGPORT"
 	else
 		log "starting PostgreSQL on 127.0.0.1:$PGPORT"
-		touch "$DATA/pg.log"
-		if [ "$(id -u)" = 0 ]; then chown postgres:postgres "$DATA/pg.log"; fi
-		as_pg "$PGBIN/pg_ctl" -D "$DATA/pg" -l "$DATA/pg.log" -w -t 60 \
-			-o "-c listen_addresses=127.0.0.1 -p $PGPORT -k $DATA/run" start >/dev/null \
-			|| { tail -20 "$DATA/pg.log"; die "PostgreSQL did not start"; }
+		touch "$PGHOME/pg.log"
+		if [ "$(id -u)" = 0 ]; then chown postgres:postgres "$PGHOME/pg.log"; fi
+		as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" -l "$PGHOME/pg.log" -w -t 60 \
+			-o "-c listen_addresses=127.0.0.1 -p $PGPORT -k $PGHOME/run" start >/dev/null \
+			|| { tail -20 "$PGHOME/pg.log"; die "PostgreSQL did not start"; }
 		STARTED_PG=1
 	fi
 }
@@ -148,7 +164,7 @@ cleanup() {
 	done
 	if [ "$STARTED_PG" = 1 ]; then
 		log "stopping PostgreSQL"
-		as_pg "$PGBIN/pg_ctl" -D "$DATA/pg" -m fast -w stop >/dev/null 2>&1 || true
+		as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" -m fast -w stop >/dev/null 2>&1 || true
 	fi
 }
 
