@@ -75,7 +75,9 @@ export const moveLogKindSchema = z.enum([
 	'accept',
 	'take-back',
 	'ruling-request',
-	'end-turn'
+	'end-turn',
+	/** a judge's ruling on an earlier entry (the judge desk; never an edit of what it rules on) */
+	'ruling'
 ]);
 export type MoveLogKind = z.output<typeof moveLogKindSchema>;
 

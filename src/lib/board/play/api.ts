@@ -3,6 +3,7 @@
 import type { CheckReport, Waypoint } from '../../schemas/check';
 import type { GameView, MoveLogEntry, Pose, Side } from '../../schemas/game';
 import type { MoveKind } from '../../schemas/check';
+import type { RulingRequestView } from '../../schemas/ruling';
 
 export interface ApiError {
 	message: string;
@@ -54,6 +55,11 @@ export function gameApi(id: number) {
 		takeBack: (seq: number) => send(`${base}/take-back`, 'POST', { seq }),
 		rulingRequest: (seq: number, note: string) => send(`${base}/ruling-request`, 'POST', { seq, note }),
 		endTurn: (seq: number) => send(`${base}/end-turn`, 'POST', { seq }),
+		/** the game's ruling requests (the judge desk's route) */
+		requests: async (): Promise<RulingRequestView[] | null> => {
+			const r = (await send(`/api/v1/rulings?game=${id}`, 'GET')) as unknown as { ok: boolean; requests?: RulingRequestView[] };
+			return r.ok && r.requests ? r.requests : null;
+		},
 		eventsUrl: base + '/events'
 	};
 }

@@ -7,9 +7,13 @@ import { otherSide, type GamePiece, type GameView, type MoveLogEntry, type Pose,
 import type { BoardPiece, Overlay, BoardPointer } from '../types';
 import type { PointIn } from '../view';
 import { checkRequestFor } from './rules';
-import { simplifyTrace, type TracePoint } from './simplify';
+import type { TracePoint } from './simplify';
 import { unitsOf, type UnitSummary } from './pieces';
 import { gameApi, type ChangeAnswer } from './api';
+import { offerFor, pathWith, pickKey, reachShading, routeRequestFor, routeShading, spacingBreaks, type Offer, type Pick } from './reach';
+import { RouteClient } from '../route/route-client';
+import type { ReachMap, RouteResult } from '../../referee/route';
+import type { RulingRequestView } from '../../schemas/ruling';
 
 /** Smallest pointer travel (in) that adds a point to a dragged path: finer than the 0.1 in simplification. */
 const TRACE_STEP_IN = 0.02;
@@ -50,7 +54,29 @@ export class PlayState {
 	/** raw dragged traces, starting at the piece's position, per piece of the selected unit */
 	drafts = $state.raw<Record<string, TracePoint[]>>({});
 	activePiece = $state<string | null>(null);
+	/** per piece: how many trace points after the start are the route finder's (kept verbatim) */
+	fixed = $state.raw<Record<string, number>>({});
 	private grab: { piece: string; dx: number; dy: number; redeploy: boolean } | null = null;
+
+	// The route finder (advice; the live check is the verdict). One worker answers the picked
+	// piece's map, drag routes and nearest-legal offers; a second builds the unit's other maps.
+	/** the picked-up piece whose reach map is shaded */
+	picked = $state<string | null>(null);
+	reach = $state.raw<{ piece: string; key: string; map: ReachMap } | null>(null);
+	/** every deployed piece's map of the selected unit, when `showAllMaps` is on */
+	unitMaps = $state.raw<Record<string, ReachMap>>({});
+	showReach = $state(true);
+	showAllMaps = $state(false);
+	/** the shortest legal route to the finger while a piece is dragged (and after the drop) */
+	dragRoute = $state.raw<{ piece: string; route: RouteResult } | null>(null);
+	/** after a drop on a spot the finder cannot reach: the nearest legal end */
+	offer = $state.raw<Offer | null>(null);
+	reachProblem = $state<string | null>(null);
+	private routes: RouteClient | null = null;
+	private mapRoutes: RouteClient | null = null;
+	private pickGen = 0;
+	private mapsGen = 0;
+	private mapsKey = '';
 
 	measuring = $state(false);
 	measurePicks = $state.raw<MeasurePick[]>([]);
@@ -62,6 +88,8 @@ export class PlayState {
 	notice = $state<string | null>(null);
 	busy = $state(false);
 	live = $state<'connecting' | 'live' | 'offline'>('connecting');
+	/** ruling requests of this game (open, taken by a judge, or ruled) */
+	requests = $state.raw<RulingRequestView[]>([]);
 
 	private api: ReturnType<typeof gameApi>;
 	private events: EventSource | null = null;
@@ -89,7 +117,7 @@ export class PlayState {
 	/** The simplified waypoints of every dragged piece: exactly what would be submitted. */
 	paths = $derived.by(() => {
 		const out: Record<string, Waypoint[]> = {};
-		for (const [id, trace] of Object.entries(this.drafts)) if (trace.length > 1) out[id] = simplifyTrace(trace);
+		for (const [id, trace] of Object.entries(this.drafts)) if (trace.length > 1) out[id] = pathWith(trace, this.fixed[id] ?? 0);
 		return out;
 	});
 
@@ -132,6 +160,12 @@ export class PlayState {
 
 	/** Findings to show: the server's, when it refused the draft, else the browser's live ones. */
 	findings = $derived<Finding[]>(this.refusal?.report?.findings ?? this.liveReport?.findings ?? []);
+
+	/** Pieces whose spacing breaks, by the engine's spacing result in the findings shown. */
+	spacing = $derived(spacingBreaks(this.findings));
+
+	/** Ruling requests still waiting for a judge's word. */
+	openRequests = $derived(this.requests.filter((r) => r.status !== 'ruled'));
 
 	/** Where each piece of the selected unit stands at the end of its draft path. */
 	private draftPose(p: GamePiece): Pose | null {
@@ -180,6 +214,11 @@ export class PlayState {
 		const unit = this.selected;
 		if (unit && s.phase === 'move') {
 			const tone = unit.side === 'a' ? 'sidea' : 'sideb';
+			// Reach maps first, so everything else is drawn over the shading.
+			if (this.showReach) {
+				if (this.showAllMaps) for (const [id, map] of Object.entries(this.unitMaps)) if (id !== this.reach?.piece) out.push(...reachShading(map, { shaded: false, tone: 'felt' }));
+				if (this.reach && unit.pieces.some((p) => p.id === this.reach!.piece)) out.push(...reachShading(this.reach.map, { shaded: true }));
+			}
 			// Keep-out zones of every enemy piece on the table.
 			for (const p of s.pieces) if (p.at && p.side !== unit.side) out.push({ kind: 'keep-out', pieceId: p.id, distanceIn: prof.keepOut, tone: 'signal' });
 			// Dragged paths, as they will be submitted (simplified).
@@ -189,6 +228,7 @@ export class PlayState {
 			}
 			// Spacing links: each piece to its nearest unit-mate, with the edge-to-edge gap.
 			const mine = unit.pieces.filter((p) => p.at).map((p) => ({ p, pose: this.draftPose(p)! }));
+			const broken = new Set(this.spacing.map((b) => b.piece));
 			if (mine.length > 1) {
 				const drawn = new Set<string>();
 				for (const a of mine) {
@@ -202,8 +242,9 @@ export class PlayState {
 					const key = [a.p.id, best.b.p.id].sort().join('|');
 					if (drawn.has(key)) continue;
 					drawn.add(key);
-					const ok = best.d <= prof.spacing + prof.tolerance;
-					out.push({ kind: 'link', from: a.pose, to: best.b.pose, tone: ok ? 'ok' : 'signal', dashed: !ok, label: `${best.d.toFixed(2)} in${ok ? '' : ' (too far)'}` });
+					// the gap is measured here; whether spacing breaks is the engine's word (live check)
+					const ok = !broken.has(a.p.id) && !broken.has(best.b.p.id);
+					out.push({ kind: 'link', from: a.pose, to: best.b.pose, tone: ok ? 'ok' : 'signal', dashed: !ok, label: `${best.d.toFixed(2)} in${ok ? '' : ' (spacing breaks)'}` });
 				}
 			}
 			// Support rings of the unit's sources (radius from the footprint's edge, drawn from the centre).
@@ -219,13 +260,25 @@ export class PlayState {
 				const over = b.cost > b.allowance + prof.tolerance;
 				out.push({ kind: 'label', x: pose.x, y: pose.y - 1.2, text: `${b.cost.toFixed(2)} in of ${fmtLimit(b.allowance)}${over ? ' — too far' : ''}`, tone: over ? 'signal' : 'ink' });
 			}
+			// The finder's shortest legal route to the finger, and the nearest legal spot on offer.
+			const dr = this.dragRoute;
+			const from = dr ? s.pieces.find((q) => q.id === dr.piece)?.at : null;
+			if (dr && from) out.push(...routeShading(from, dr.route));
+			const o = this.offer;
+			if (o?.kind === 'spot') out.push({ kind: 'ring', x: o.at.x, y: o.at.y, radiusIn: 0.35, tone: 'ok', label: 'nearest legal spot' });
 		}
 		// A marker with words at the piece each finding is about.
 		for (const f of this.findings) {
 			if (f.severity === 'warning') continue;
 			const p = s.pieces.find((q) => q.id === f.pieces[0]);
 			const pose = p ? this.draftPose(p) : null;
-			if (pose) out.push({ kind: 'warning', x: pose.x + 0.9, y: pose.y - 0.9, label: f.code.replace(/-/g, ' ') });
+			if (pose && f.code !== 'spacing') out.push({ kind: 'warning', x: pose.x + 0.9, y: pose.y - 0.9, label: f.code.replace(/-/g, ' ') });
+		}
+		// Where spacing would break, by the live check: a marker with the gap at each piece it names.
+		for (const b of this.spacing) {
+			const p = s.pieces.find((q) => q.id === b.piece);
+			const pose = p ? this.draftPose(p) : null;
+			if (pose) out.push({ kind: 'warning', x: pose.x + 0.9, y: pose.y - 0.9, label: `spacing breaks: ${b.measuredIn.toFixed(2)} in` });
 		}
 		// The move awaiting acceptance, drawn for both players.
 		const pend = this.pending;
@@ -282,23 +335,166 @@ export class PlayState {
 	selectUnit(unit: string | null): void {
 		if (unit === this.selectedUnit) return;
 		this.selectedUnit = unit;
-		this.drafts = {};
+		this.clearDrafts();
 		this.activePiece = null;
 		this.refusal = null;
 		// A unit with a die waiting can only dash (or hold).
 		this.kind = unit && this.state.die?.unit === unit ? 'dash' : 'move';
+		this.picked = null;
+		this.reach = null;
+		this.unitMaps = {};
+		this.mapsKey = '';
+		this.refreshUnitMaps();
 	}
 
 	chooseKind(kind: MoveKind): void {
 		this.kind = kind;
 		this.refusal = null;
-		if (kind === 'hold') this.drafts = {};
+		if (kind === 'hold') this.clearDrafts();
+		this.repick();
 	}
 
 	resetPaths(): void {
-		this.drafts = {};
+		this.clearDrafts();
 		this.activePiece = null;
 		this.refusal = null;
+		this.repick();
+	}
+
+	private clearDrafts(): void {
+		this.drafts = {};
+		this.fixed = {};
+		this.dragRoute = null;
+		this.offer = null;
+	}
+
+	// --- reach maps, routes, the nearest legal spot -------------------------------------------------
+
+	/** The finder's question for a piece of the selected unit, for the chosen kind (null when none applies). */
+	private pickFor(pieceId: string): Pick | null {
+		if (this.kind === 'hold' || this.state.phase !== 'move') return null;
+		const die = this.kind === 'dash' ? this.dieForSelected : undefined;
+		if (this.kind === 'dash' && (die === null || die === undefined)) return null;
+		const piece = this.state.pieces.find((p) => p.id === pieceId);
+		if (!piece?.at) return null;
+		// unit-mates stand at the ends of their drafts for the end rules
+		const placed: Pick['placed'] = {};
+		for (const p of this.state.pieces) {
+			if (p.unit !== piece.unit || p.id === pieceId || !p.at || !this.drafts[p.id] || this.drafts[p.id].length < 2) continue;
+			const pose = this.draftPose(p)!;
+			placed[p.id] = { x: pose.x, y: pose.y, facing: pose.facing };
+		}
+		return { pieceId, kind: this.kind, die: die ?? undefined, placed };
+	}
+
+	/** Picks a piece up: its reach map for the chosen kind is built off the main thread and shaded. */
+	async pickUp(pieceId: string): Promise<void> {
+		this.picked = pieceId;
+		const routes = this.routes;
+		const pick = this.pickFor(pieceId);
+		if (!pick || !routes) {
+			this.reach = null;
+			return;
+		}
+		const key = pickKey(this.state.pieces, pick);
+		if (this.reach?.key === key) return;
+		const gen = ++this.pickGen;
+		this.reach = null;
+		try {
+			const map = await routes.pickUp(routeRequestFor(this.game.layout, this.game.profile, this.state.pieces, pick));
+			if (gen !== this.pickGen) return;
+			this.reach = { piece: pieceId, key, map };
+			this.reachProblem = map.status === 'ok' ? null : (map.reason ?? `${pieceId} cannot move (${map.status})`);
+		} catch (e) {
+			if (gen === this.pickGen) this.reachProblem = `The route finder could not map ${pieceId}: ${e instanceof Error ? e.message : String(e)}`;
+		}
+		if (this.showAllMaps) this.refreshUnitMaps();
+	}
+
+	/** Maps the picked piece again after the kind, the die, the table or a unit-mate changed. */
+	private repick(): void {
+		if (this.picked && this.selected?.pieces.some((p) => p.id === this.picked)) void this.pickUp(this.picked);
+		else this.reach = null;
+		this.refreshUnitMaps();
+	}
+
+	toggleReach(): void {
+		this.showReach = !this.showReach;
+	}
+
+	toggleAllMaps(): void {
+		this.showAllMaps = !this.showAllMaps;
+		this.refreshUnitMaps();
+	}
+
+	/** Every deployed piece's map of the selected unit, one after another on the second worker. */
+	refreshUnitMaps(): void {
+		const unit = this.selected;
+		if (!this.showAllMaps || !unit || !this.mapRoutesClient()) {
+			if (!this.showAllMaps) this.mapsKey = '';
+			return;
+		}
+		const picks = unit.pieces.map((p) => this.pickFor(p.id)).filter((q): q is Pick => q !== null);
+		const key = picks.map((q) => pickKey(this.state.pieces, q)).join('#');
+		if (key === this.mapsKey) return;
+		this.mapsKey = key;
+		const gen = ++this.mapsGen;
+		const client = this.mapRoutes!;
+		void (async () => {
+			const maps: Record<string, ReachMap> = {};
+			for (const q of picks) {
+				try {
+					maps[q.pieceId] = await client.pickUp(routeRequestFor(this.game.layout, this.game.profile, this.state.pieces, q));
+				} catch {
+					continue;
+				}
+				if (gen !== this.mapsGen) return;
+				this.unitMaps = { ...maps };
+			}
+		})();
+	}
+
+	private mapRoutesClient(): RouteClient | null {
+		if (!this.mapRoutes && this.routes) this.mapRoutes = new RouteClient();
+		return this.mapRoutes;
+	}
+
+	/** A drag frame: ask for the shortest legal route to where the piece is now (only the newest is answered). */
+	private askRoute(piece: string, x: number, y: number): void {
+		if (!this.routes || (this.reach?.piece !== piece && this.picked !== piece)) return;
+		void this.routes.findRoute(x, y).then((route) => {
+			if (route && this.grab?.piece === piece) this.dragRoute = { piece, route };
+		});
+	}
+
+	/** After a drop: if the finder cannot reach the spot, offer the nearest legal one. */
+	private async offerAfterDrop(piece: string, end: { x: number; y: number }): Promise<void> {
+		if (!this.routes || this.picked !== piece) return;
+		const gen = this.pickGen;
+		try {
+			const [route, nearest] = await Promise.all([this.routes.findRoute(end.x, end.y), this.routes.nearestLegal(end.x, end.y)]);
+			if (gen !== this.pickGen || this.grab) return;
+			if (route) this.dragRoute = { piece, route };
+			this.offer = offerFor(piece, nearest);
+		} catch (e) {
+			this.reachProblem = `The route finder could not answer: ${e instanceof Error ? e.message : String(e)}`;
+		}
+	}
+
+	/** Takes the offer: the piece's path becomes the finder's route to the nearest legal spot. */
+	takeOffer(): void {
+		const o = this.offer;
+		if (!o || o.kind !== 'spot') return;
+		const p = this.state.pieces.find((q) => q.id === o.piece);
+		if (!p?.at) return;
+		const trace: TracePoint[] = [{ x: p.at.x, y: p.at.y }, ...o.waypoints.map((w) => ({ x: w.x, y: w.y }))];
+		this.drafts = { ...this.drafts, [o.piece]: trace };
+		this.fixed = { ...this.fixed, [o.piece]: o.waypoints.length };
+		this.activePiece = o.piece;
+		this.offer = null;
+		this.dragRoute = null;
+		this.refusal = null;
+		this.refreshUnitMaps();
 	}
 
 	/** A facing change at the current end of the active piece's path. */
@@ -346,6 +542,9 @@ export class PlayState {
 			this.activePiece = piece.id;
 			this.refusal = null;
 			this.notice = null;
+			this.offer = null;
+			if (this.dragRoute?.piece !== piece.id) this.dragRoute = null;
+			void this.pickUp(piece.id);
 			return true;
 		}
 		const g = this.grab;
@@ -358,6 +557,7 @@ export class PlayState {
 			const last = trace[trace.length - 1];
 			if (Math.hypot(x - last.x, y - last.y) < TRACE_STEP_IN) return;
 			this.drafts = { ...this.drafts, [g.piece]: [...trace, { x, y }] };
+			if (!g.redeploy) this.askRoute(g.piece, x, y);
 			return;
 		}
 		if (e.phase === 'up' || e.phase === 'cancel') {
@@ -368,6 +568,13 @@ export class PlayState {
 				const end = trace?.[trace.length - 1];
 				const p = s.pieces.find((q) => q.id === g.piece);
 				if (e.phase === 'up' && end && p?.at && trace.length > 1) void this.deploy([{ piece: g.piece, at: { x: end.x, y: end.y, facing: p.at.facing ?? 0 } }]);
+			} else {
+				const trace = this.drafts[g.piece];
+				if (trace && trace.length > 1) {
+					const end = trace[trace.length - 1];
+					void this.offerAfterDrop(g.piece, end);
+				}
+				this.refreshUnitMaps();
 			}
 		}
 	};
@@ -453,6 +660,7 @@ export class PlayState {
 	async roll(): Promise<void> {
 		if (!this.selectedUnit) return;
 		await this.run(() => this.api.roll(this.game.seq, this.selectedUnit!), () => (this.kind = 'dash'));
+		this.repick();
 	}
 
 	async submit(): Promise<void> {
@@ -461,7 +669,10 @@ export class PlayState {
 		const paths = this.kind === 'hold' ? undefined : this.paths;
 		const a = await this.run(() => this.api.move(this.game.seq, unit, this.kind, paths));
 		if (a.ok) {
-			this.drafts = {};
+			this.clearDrafts();
+			this.picked = null;
+			this.reach = null;
+			this.unitMaps = {};
 			this.activePiece = null;
 			this.refusal = null;
 			this.selectedUnit = null;
@@ -492,12 +703,25 @@ export class PlayState {
 	async reload(): Promise<void> {
 		const a = await this.api.get();
 		if (a.ok && a.game) {
-			const moved = a.game.seq !== this.game.seq;
+			const before = this.game.seq;
+			const moved = a.game.seq !== before;
 			this.game = a.game;
-			// Someone else's change may make the draft stale: a draft only survives our own turn.
-			if (moved && !this.isMyTurn) this.resetPaths();
+			await this.refreshLog();
+			// Someone else's change may make the draft stale: a draft only survives our own turn,
+			// and not a ruling, which may put pieces elsewhere.
+			const ruled = this.log.some((e) => e.seq > before && e.kind === 'ruling');
+			if (moved && (!this.isMyTurn || ruled)) this.resetPaths();
+			else if (moved) this.repick();
+			if (ruled) this.notice = 'A judge has ruled: the table shows the positions after the ruling';
+			void this.refreshRequests();
+			return;
 		}
 		await this.refreshLog();
+	}
+
+	async refreshRequests(): Promise<void> {
+		const r = await this.api.requests();
+		if (r) this.requests = r;
 	}
 
 	async refreshLog(): Promise<void> {
@@ -508,6 +732,8 @@ export class PlayState {
 	/** Listens for new log entries; EventSource reconnects by itself and sends the last id it saw. */
 	connect(): void {
 		if (this.events) return;
+		this.routes ??= new RouteClient();
+		void this.refreshRequests();
 		const es = new EventSource(this.api.eventsUrl);
 		this.events = es;
 		es.onopen = () => (this.live = 'live');
@@ -521,6 +747,10 @@ export class PlayState {
 	disconnect(): void {
 		this.events?.close();
 		this.events = null;
+		this.routes?.dispose();
+		this.mapRoutes?.dispose();
+		this.routes = null;
+		this.mapRoutes = null;
 	}
 }
 
@@ -528,31 +758,4 @@ function fmtLimit(v: number): string {
 	return Number.isInteger(v) ? String(v) : v.toFixed(2);
 }
 
-/** A log entry in one sentence, for the log panel. */
-export function describeEntry(e: MoveLogEntry, pieces: readonly GamePiece[]): string {
-	const unitName = (u: unknown) => pieces.find((p) => p.unit === u)?.unitName ?? String(u);
-	const p = e.payload as Record<string, unknown>;
-	const side = e.side ? sideLabel(e.side) : '';
-	switch (e.kind) {
-		case 'roster':
-			return `${side} brings "${p.rosterName}" (${p.pieces} pieces)`;
-		case 'deploy':
-			return `${side} deploys ${(p.placements as unknown[]).length} piece(s)`;
-		case 'roll':
-			return `${side} rolls ${p.die} for the dash of ${unitName(p.unit)}`;
-		case 'move':
-			return `${side}: ${unitName(p.unit)} — ${kindLabel[p.kind as MoveKind]}${p.die ? ` (die ${p.die})` : ''}, legal`;
-		case 'refused':
-			return `${side}: ${unitName(p.unit)} — ${kindLabel[p.kind as MoveKind]} refused: ${(e.report?.findings ?? []).filter((f) => f.severity !== 'warning').map((f) => f.message).join('; ')}`;
-		case 'accept':
-			return `${side} accepts move #${p.moveSeq}`;
-		case 'take-back':
-			return `${side} takes move #${p.moveSeq} back`;
-		case 'ruling-request':
-			return `${side} asks a judge about move #${p.moveSeq}: "${p.note}"`;
-		case 'end-turn': {
-			const next = p.next as { phase: string; round: number; side: Side };
-			return `${side} ends its ${p.phase === 'deploy' ? 'deployment' : 'turn'}; next: ${sideLabel(next.side)}${next.phase === 'move' ? `, round ${next.round}` : ''}`;
-		}
-	}
-}
+export { describeEntry } from './log-words';

@@ -5,7 +5,6 @@
 // notifies the game's channel, so both players' screens hear of it at once.
 import type { User } from 'lucia';
 import type { RulingInput, RulingPayload, LogEntry } from '$lib/schemas/ruling';
-import type { MoveLogKind } from '$lib/schemas/game';
 import { foldLog, stateBefore, applyRuling } from '$lib/board/replay/fold';
 import { loggedMove } from '$lib/board/replay/measure';
 import { planRuling } from '$lib/board/replay/ruling';
@@ -75,9 +74,8 @@ export async function rule(requestId: number, user: User, input: RulingInput): P
 		};
 		const seq = game.seq + 1;
 		const state = applyRuling(game.state, payload);
-		// 'ruling' is a kind the rulings migration adds to the log; the table's type predates it.
 		await moves.append(
-			{ gameId: game.id, seq, kind: 'ruling' as MoveLogKind, actor: user.id, side: null, round: game.state.round, payload: payload as unknown as Record<string, unknown>, report: plan.plan.report },
+			{ gameId: game.id, seq, kind: 'ruling', actor: user.id, side: null, round: game.state.round, payload: payload as unknown as Record<string, unknown>, report: plan.plan.report },
 			trx
 		);
 		await games.saveState(game.id, state, seq, trx);
