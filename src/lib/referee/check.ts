@@ -5,7 +5,8 @@ import { boxOf, pointSegmentDistance, signedDistance, type Box, type Rounded } f
 import { classList, inches, limitText } from './messages';
 import { climbIn, horizontalIn, pathSteps, pivotIn, type PathStep, type Touch } from './path-cost';
 import { resolveProfile } from './profile';
-import { reachGap, Scene, type ScenePiece } from './scene';
+import { frameOf, lowerSweepGap } from './bounds';
+import { pairGap, Scene, type ScenePiece } from './scene';
 import { spacingFindings } from './spacing';
 import { objectiveSummaries, ringSummaries } from './summaries';
 import { pivotSweep, translationSweep } from './sweep';
@@ -89,7 +90,7 @@ export function runCheck(request: CheckRequest): CheckReport {
 	for (const m of members) {
 		for (const o of scene.nearStart(m.startBox, keepOutWithin)) {
 			if (o.side === m.side) continue;
-			if (reachGap(m, m.startPose.x, m.startPose.y, o, o.startPose.x, o.startPose.y) > keepOutWithin) continue;
+			if (pairGap(m, false, o, false) > keepOutWithin) continue;
 			const d = signedDistance(m.start, o.start);
 			if (d <= keepOutWithin && (!closest || d < closest.d)) closest = { d, a: m, b: o };
 		}
@@ -139,6 +140,8 @@ export function runCheck(request: CheckRequest): CheckReport {
 		const minToOther = new Map<ScenePiece, number>();
 
 		legs.forEach((leg, li) => {
+			// the frame the leg starts from, for the sweep's distance brackets (straight legs only)
+			const legFrame = leg.step.kind === 'move' ? frameOf(leg.step.from.x, leg.step.from.y, leg.step.from.facingDeg) : null;
 			leg.outer.forEach((sw, si) => {
 				const box = leg.boxes[si];
 				worstOffBoard = Math.max(worstOffBoard, offBoardBy(box, widthIn, depthIn));
@@ -155,6 +158,7 @@ export function runCheck(request: CheckRequest): CheckReport {
 						// unit-mates that also move are not where they started, so they do not block each other;
 						// a unit-mate that stays put is an obstacle like any friendly piece
 						if (o.member && o.moved) continue;
+						if (legFrame && !(m.round && o.round) && lowerSweepGap(m.reach, legFrame, dx, dy, o.reach, o.startFrame) > need) continue;
 						const d = signedDistance(sw, o.start);
 						const prev = minToOther.get(o);
 						if (prev === undefined || d < prev) minToOther.set(o, d);
@@ -270,7 +274,7 @@ export function runCheck(request: CheckRequest): CheckReport {
 		}
 		for (const o of scene.nearEnd(m.endBox, keepOutWithin)) {
 			if (o === m) continue;
-			const lb = reachGap(m, m.endPose.x, m.endPose.y, o, o.endPose.x, o.endPose.y);
+			const lb = pairGap(m, true, o, true);
 			if (lb > (o.side !== m.side ? keepOutWithin : 0)) continue;
 			const d = signedDistance(m.end, o.end);
 			// a pair of the unit's own pieces is reported once, under the one that moved (or the first)
@@ -317,7 +321,7 @@ export function runCheck(request: CheckRequest): CheckReport {
 				members.map((m) => m.id),
 				members.map((m) => m.end),
 				profile,
-				members.map((m) => ({ x: m.endPose.x, y: m.endPose.y, outerIn: m.reachIn, innerIn: m.innerReachIn }))
+				members.map((m) => ({ x: m.endPose.x, y: m.endPose.y, outerIn: m.reachIn, innerIn: m.innerReachIn, reach: m.round ? undefined : m.reach, frame: m.endFrame }))
 			)
 		);
 	}

@@ -4,6 +4,7 @@ import Flatbush from 'flatbush';
 import type { CheckRequest, PieceIn, Profile } from '../schemas/check';
 import { boxesMeet, signedDistancePointConvex, type Box, type Rounded } from './convex';
 import { localFootprint, place, type LocalFootprint } from './footprints';
+import { frameOf, lowerGap, reachOfLocal, type Frame, type Reach } from './bounds';
 import { endPose, type PoseDeg } from './path-cost';
 import { mmToIn } from './profile';
 import { prepareTerrain, type PreparedTerrain } from './terrain';
@@ -26,6 +27,8 @@ export class ScenePiece {
 	readonly unit: string;
 	readonly bulky: boolean;
 	readonly flies: boolean;
+	/** a round base (whose bounding disk is its footprint) */
+	readonly round: boolean;
 	/** radius of a disk about the reference point that holds the footprint (for cheap pruning) */
 	readonly reachIn: number;
 	readonly startPose: PoseDeg;
@@ -51,6 +54,7 @@ export class ScenePiece {
 		this.bulky = bulky;
 		this.flies = src.flies === true;
 		this.reachIn = reachOf(src.footprint);
+		this.round = src.footprint.shape === 'round';
 		this.startPose = { x: src.at.x, y: src.at.y, facingDeg: src.at.facing ?? 0 };
 		this.endPose = moved ? endPose : this.startPose;
 		const r = this.reachIn;
@@ -76,6 +80,24 @@ export class ScenePiece {
 		return (this._innerReachIn = v);
 	}
 	private _innerReachIn: number | null = null;
+
+	/** what the distance brackets need of the footprint (bounds.ts) */
+	get reach(): Reach {
+		if (this._reach) return this._reach;
+		const fp = this.src.footprint;
+		const [a, b] = fp.shape === 'oval' ? [mmToIn(fp.lengthMm) / 2, mmToIn(fp.widthMm) / 2] : [0, 0];
+		return (this._reach = reachOfLocal(this.local, fp.shape, a, b, fp.shape === 'hull' ? this.innerReachIn : -Infinity));
+	}
+	private _reach: Reach | null = null;
+	get startFrame(): Frame {
+		return (this._startFrame ??= frameOf(this.startPose.x, this.startPose.y, this.startPose.facingDeg));
+	}
+	get endFrame(): Frame {
+		if (!this.moved) return this.startFrame;
+		return (this._endFrame ??= frameOf(this.endPose.x, this.endPose.y, this.endPose.facingDeg));
+	}
+	private _startFrame: Frame | null = null;
+	private _endFrame: Frame | null = null;
 
 	get local(): LocalFootprint {
 		return (this._local ??= localFootprint(this.src.footprint, this.toleranceIn));
@@ -154,6 +176,18 @@ export class Scene {
 	inner(p: ScenePiece, pose: PoseDeg): Rounded {
 		return place(p.local.inner, pose.x, pose.y, pose.facingDeg);
 	}
+}
+
+/**
+ * Lower bound on the edge-to-edge distance of two pieces, each at its start or its end: their
+ * bounding disks, or for a non-round footprint its support along the line of centres.
+ */
+export function pairGap(a: ScenePiece, aEnd: boolean, b: ScenePiece, bEnd: boolean): number {
+	const pa = aEnd ? a.endPose : a.startPose;
+	const pb = bEnd ? b.endPose : b.startPose;
+	const disks = reachGap(a, pa.x, pa.y, b, pb.x, pb.y);
+	if (a.round && b.round) return disks;
+	return Math.max(disks, lowerGap(a.reach, aEnd ? a.endFrame : a.startFrame, b.reach, bEnd ? b.endFrame : b.startFrame));
 }
 
 /** Lower bound on the edge-to-edge distance of two pieces at given centres, from their reach. */

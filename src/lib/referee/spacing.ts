@@ -1,6 +1,7 @@
 // The spacing graph of a unit after its move: edges join unit-mates within the spacing distance
 // edge to edge; each piece needs k such neighbours (k = 2 in large units), optionally one group.
 import type { Finding, Profile } from '../schemas/check';
+import { lowerGap, upperGap, type Frame, type Reach } from './bounds';
 import { signedDistance, type Rounded } from './convex';
 import { countWord, inches, limitText, ordinal } from './messages';
 
@@ -55,6 +56,30 @@ export interface Disk {
 	y: number;
 	outerIn: number;
 	innerIn: number;
+	/** a non-round footprint's brackets (bounds.ts) at `frame`, tighter than the disks */
+	reach?: Reach;
+	frame?: Frame;
+}
+
+/** A lower bound on the distance of pair (i, j) from their disks and brackets. */
+function lowerOf(disks: Disk[], i: number, j: number): number {
+	const a = disks[i];
+	const b = disks[j];
+	const c = Math.hypot(a.x - b.x, a.y - b.y) - a.outerIn - b.outerIn;
+	if (!a.frame || !b.frame || (!a.reach && !b.reach)) return c;
+	return Math.max(c, lowerGap(a.reach ?? roundReach(a), a.frame, b.reach ?? roundReach(b), b.frame));
+}
+
+function upperOf(disks: Disk[], i: number, j: number): number {
+	const a = disks[i];
+	const b = disks[j];
+	if (!a.frame || !b.frame || (!a.reach && !b.reach)) return Infinity;
+	return upperGap(a.reach ?? roundReach(a), a.frame, b.reach ?? roundReach(b), b.frame);
+}
+
+/** A round base's brackets: its disk. */
+function roundReach(d: Disk): Reach {
+	return { kind: 0, r: d.outerIn, a: 0, b: 0, innerScale: 0, pts: [], innerDisk: d.outerIn };
 }
 
 /**
@@ -74,10 +99,10 @@ export function spacingFindings(ids: string[], shapes: Rounded[], profile: Profi
 			let v: number;
 			if (disks) {
 				const c = Math.hypot(disks[i].x - disks[j].x, disks[i].y - disks[j].y);
-				if (c - disks[i].outerIn - disks[j].outerIn > within) {
+				if (c - disks[i].outerIn - disks[j].outerIn > within || lowerOf(disks, i, j) > within) {
 					v = Infinity; // surely apart; measured later only if the figure is reported
 					sure[i][j] = sure[j][i] = true;
-				} else if (c - disks[i].innerIn - disks[j].innerIn <= within) {
+				} else if (c - disks[i].innerIn - disks[j].innerIn <= within || upperOf(disks, i, j) <= within) {
 					v = -Infinity; // surely in range
 					sure[i][j] = sure[j][i] = true;
 				} else v = signedDistance(shapes[i], shapes[j]);
@@ -93,12 +118,32 @@ export function spacingFindings(ids: string[], shapes: Rounded[], profile: Profi
 		}
 		return dist[i][j];
 	};
+	/** The least exact figure over the pairs, measuring a surely-apart pair only while its lower bound could still beat it. */
+	const least = (pairs: [number, number][], count: number): number => {
+		const known: number[] = [];
+		const pending: [number, number, number][] = [];
+		for (const [i, j] of pairs) {
+			if (sure[i][j] && dist[i][j] === Infinity && disks) pending.push([lowerOf(disks, i, j), i, j]);
+			else known.push(exact(i, j));
+		}
+		known.sort((a, b) => a - b);
+		pending.sort((a, b) => a[0] - b[0]);
+		for (const [lb, i, j] of pending) {
+			if (known.length >= count && lb >= known[count - 1]) break;
+			const v = exact(i, j);
+			let at = known.length;
+			while (at > 0 && known[at - 1] > v) at--;
+			known.splice(at, 0, v);
+		}
+		return count <= known.length ? known[count - 1] : Infinity;
+	};
 	const out: Finding[] = [];
 	for (let i = 0; i < n; i++) {
 		const inRange = dist[i].filter((v, j) => j !== i && v <= within).length;
 		if (inRange >= k) continue;
-		const sorted = dist[i].map((_, j) => (j === i ? Infinity : exact(i, j))).sort((a, b) => a - b);
-		const kth = sorted[k - 1];
+		const row: [number, number][] = [];
+		for (let j = 0; j < n; j++) if (j !== i) row.push([i, j]);
+		const kth = least(row, k);
 		const mate = k === 1 ? 'its nearest unit-mate' : `its ${ordinal(k)} unit-mate`;
 		out.push({
 			code: 'spacing',
@@ -112,8 +157,9 @@ export function spacingFindings(ids: string[], shapes: Rounded[], profile: Profi
 	if (profile.spacingConnected) {
 		const groups = spacingGroups(dist, within);
 		for (const g of groups.slice(1)) {
-			let gap = Infinity;
-			for (const i of g) for (let j = 0; j < n; j++) if (!g.includes(j) && exact(i, j) < gap) gap = dist[i][j];
+			const across: [number, number][] = [];
+			for (const i of g) for (let j = 0; j < n; j++) if (!g.includes(j)) across.push([i, j]);
+			const gap = least(across, 1);
 			const names = g.map((i) => ids[i]);
 			out.push({
 				code: 'spacing',

@@ -3,7 +3,8 @@
 import type { CheckReport } from '../schemas/check';
 import { boxOf, signedDistance, type Rounded } from './convex';
 import { mmToIn } from './profile';
-import type { Scene, ScenePiece } from './scene';
+import { frameOf, lowerGap, type Reach } from './bounds';
+import { pairGap, type Scene, type ScenePiece } from './scene';
 
 type Summaries = CheckReport['summaries'];
 
@@ -15,9 +16,16 @@ export function objectiveSummaries(scene: Scene): Summaries['objectives'] {
 	return (request.board.objectives ?? []).map((o) => {
 		// the marker is a round footprint of markerMm
 		const marker: Rounded = { pts: [o.x, o.y], r: mmToIn(profile.markerMm) / 2 };
+		const markerReach: Reach = { kind: 0, r: marker.r, a: 0, b: 0, innerScale: 0, pts: [], innerDisk: marker.r };
+		const markerFrame = frameOf(o.x, o.y, 0);
 		const holders = scene
 			.nearEnd(boxOf(marker.pts, marker.r), within)
-			.filter((p) => Math.hypot(p.endPose.x - o.x, p.endPose.y - o.y) - p.reachIn - marker.r <= within && signedDistance(p.end, marker) <= within);
+			.filter(
+				(p) =>
+					Math.hypot(p.endPose.x - o.x, p.endPose.y - o.y) - p.reachIn - marker.r <= within &&
+					(p.round || lowerGap(p.reach, p.endFrame, markerReach, markerFrame) <= within) &&
+					signedDistance(p.end, marker) <= within
+			);
 		const value: Record<string, number> = {};
 		for (const s of sides) value[s] = 0;
 		const units: string[] = [];
@@ -37,9 +45,7 @@ function covered(scene: Scene, source: ScenePiece, radiusIn: number, after: bool
 	const units: string[] = [];
 	for (const p of near) {
 		if (p.side !== source.side || units.includes(p.unit)) continue;
-		const sp = after ? source.endPose : source.startPose;
-		const pp = after ? p.endPose : p.startPose;
-		if (Math.hypot(sp.x - pp.x, sp.y - pp.y) - source.reachIn - p.reachIn > within) continue;
+		if (pairGap(source, after, p, after) > within) continue;
 		if (signedDistance(shape, after ? p.end : p.start) <= within) units.push(p.unit);
 	}
 	return units;
