@@ -1,9 +1,11 @@
-// Knex seed: the demo scenario (people, roles, the club and two forces) into an empty database.
+// Knex seed: the demo scenario (people, roles, the club, two layouts and the forces) into an empty
+// database. The game in progress and the club's event follow in 02_demo_play.ts.
 import type { Knex } from 'knex';
 import { hash } from '@node-rs/argon2';
 import { randomUUID } from 'node:crypto';
 import { DEMO_CLUB, DEMO_FORCES, DEMO_PASSWORD, DEMO_PEOPLE } from './data/demo';
 import { demoLayout } from '../src/lib/board/demo-layout';
+import { secondLayout } from './data/layouts';
 
 export async function seed(knex: Knex): Promise<void> {
 	const existing = await knex('users').count<{ count: number }[]>({ count: '*' });
@@ -31,13 +33,14 @@ export async function seed(knex: Knex): Promise<void> {
 				role: p.roles.includes('organiser') ? 'organiser' : 'member'
 			});
 		}
-		const layout = demoLayout();
-		await trx('layouts').insert({
-			owner_id: ids.get('priya'),
-			name: layout.name,
-			doc: JSON.stringify(layout),
-			schema_version: layout.schemaVersion
-		});
+		for (const layout of [demoLayout(), secondLayout()]) {
+			await trx('layouts').insert({
+				owner_id: ids.get('priya'),
+				name: layout.name,
+				doc: JSON.stringify(layout),
+				schema_version: layout.schemaVersion
+			});
+		}
 		for (const f of DEMO_FORCES) {
 			await trx('rosters').insert({
 				owner_id: ids.get(f.owner),

@@ -1,4 +1,5 @@
-// The demo scenario (invented for the demo only): one club, its people and two forces.
+// The demo scenario (invented for the demo only): one club, its people and three forces, a game
+// in progress between Ada and Tomas, and an upcoming event of the club.
 export const DEMO_PASSWORD = 'tabletop-demo-1';
 
 export interface DemoPerson {
@@ -47,5 +48,40 @@ export const DEMO_FORCES: { owner: string; name: string; force: string; units: D
 			{ name: 'Root Colossus', class: 'monster', flies: false, allowanceIn: 8, footprint: { shape: 'oval', lengthMm: 170, widthMm: 105 }, pieces: 1, value: 2, ring: { radiusIn: 6, label: 'Deep roots' }, points: 210 },
 			{ name: 'Thorn Wardens', class: 'foot', flies: false, allowanceIn: 6, footprint: { shape: 'round', diameterMm: 28.5 }, pieces: 8, value: 1, points: 80 }
 		]
+	},
+	{
+		owner: 'mira',
+		name: 'Saltmarsh wardens',
+		force: 'The Saltmarsh Reeve',
+		units: [
+			{ name: 'Reed Pikes', class: 'foot', flies: false, allowanceIn: 6, footprint: { shape: 'round', diameterMm: 28.5 }, pieces: 10, value: 1, points: 90 },
+			{ name: 'Heron Lancers', class: 'mounted', flies: false, allowanceIn: 10, footprint: { shape: 'oval', lengthMm: 75, widthMm: 42 }, pieces: 3, value: 1, ring: { radiusIn: 6, label: 'Tidecall' }, points: 110 },
+			{ name: 'Mudskipper Raft', class: 'vehicle', flies: false, allowanceIn: 8, footprint: { shape: 'hull', points: [[-2, -1], [2, -1], [2.5, 0], [2, 1], [-2, 1]] }, pieces: 1, value: 0, points: 120 }
+		]
 	}
 ];
+
+/** The game in progress that the demo seed plays through the app's own game actions. */
+export const DEMO_GAME = {
+	title: 'Crossroads friendly',
+	layoutName: 'Fennmoor crossroads',
+	sides: { a: { player: 'ada', roster: 'Copperline first muster' }, b: { player: 'tomas', roster: 'Thornwake vanguard' } }
+} as const;
+
+/** The club's upcoming one-day event; `daysAhead` from the day the seed runs. */
+export const DEMO_EVENT = {
+	name: 'Fennmoor Spring Muster',
+	venue: 'Fennmoor village hall',
+	daysAhead: 24,
+	rounds: 3,
+	capacity: 16,
+	entryFeeCents: 1200,
+	currency: 'eur' as const,
+	organiser: 'priya',
+	judges: ['jun'],
+	/** entered and paid (marked paid by the seed: demo data, no provider involved) */
+	entrants: [
+		{ player: 'ada', roster: 'Copperline first muster' },
+		{ player: 'mira', roster: 'Saltmarsh wardens' }
+	]
+};
