@@ -125,34 +125,24 @@ start_bg() {
 	STARTED_PIDS+=("$!")
 }
 
+port_of() { node -e "console.log(new URL(process.argv[1]).port)" "$1"; }
+
+start_fake() {
+	# start_fake <port> <what> <script>: refuse a taken port, start, wait until it listens
+	local port="$1" what="$2" script="$3"
+	if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then
+		die "port $port is taken: is another run of $what up?"
+	fi
+	start_bg "$(basename "$script" .ts)-$port" node_modules/.bin/tsx "$script"
+	wait_for_port "$port" "$what"
+}
+
 start_fake_smtp() {
-	if (exec 3<>"/dev/tcp/127.0.0.1/$SMTP_PORT") 2>/dev/null; then
-		die "port $SMTP_PORT is taken: is another run of the fake SMTP server up?"
-	fi
-	start_bg "fake-smtp-$SMTP_PORT" node_modules/.bin/tsx scripts/fake-smtp.ts
-	wait_for_port "$SMTP_PORT" "the fake SMTP server"
-	wait_for_port "$(node -e "console.log(new URL(process.env.FAKE_SMTP_API).port)")" "the fake SMTP listing"
+	start_fake "$SMTP_PORT" "the fake SMTP server" scripts/fake-smtp.ts
+	wait_for_port "$(port_of "$FAKE_SMTP_API")" "the fake SMTP listing"
 }
-
-start_fake_s3() {
-	local port
-	port="$(node -e "console.log(new URL(process.env.S3_ENDPOINT).port)")"
-	if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then
-		die "port $port is taken: is another run of the fake S3 store up?"
-	fi
-	start_bg "fake-s3-$port" node_modules/.bin/tsx scripts/fake-s3.ts
-	wait_for_port "$port" "the fake S3 store"
-}
-
-start_fake_payments() {
-	local port
-	port="$(node -e "console.log(new URL(process.env.STRIPE_API_BASE).port)")"
-	if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then
-		die "port $port is taken: is another run of the fake payment provider up?"
-	fi
-	start_bg "fake-payments-$port" node_modules/.bin/tsx scripts/fake-payments.ts
-	wait_for_port "$port" "the fake payment provider"
-}
+start_fake_s3() { start_fake "$(port_of "$S3_ENDPOINT")" "the fake S3 store" scripts/fake-s3.ts; }
+start_fake_payments() { start_fake "$(port_of "$STRIPE_API_BASE")" "the fake payment provider" scripts/fake-payments.ts; }
 
 cleanup() {
 	local pid
