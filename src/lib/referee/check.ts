@@ -25,26 +25,49 @@ function finding(
 	return f;
 }
 
-/** The swept regions of one leg: outer (for pieces) and inner (shrunk by ε, for terrain). */
-interface Leg {
-	step: PathStep;
-	outer: Rounded[];
-	inner: Rounded[];
-	boxes: Box[];
-}
+/**
+ * The swept regions of one leg: outer (for pieces) and inner (shrunk by ε, for terrain). The
+ * inner forms lie inside the outer ones, so they are built only when terrain is near the outer.
+ */
+class Leg {
+	readonly outer: Rounded[];
+	readonly boxes: Box[];
+	private _inner: Rounded[] | null = null;
+	private _innerStart: Rounded | null = null;
 
-function legsOf(scene: Scene, p: ScenePiece, steps: PathStep[]): Leg[] {
-	return steps.map((step) => {
+	constructor(
+		private readonly scene: Scene,
+		private readonly p: ScenePiece,
+		readonly step: PathStep
+	) {
 		const f = step.from;
 		if (step.kind === 'move') {
 			const outer = translationSweep(placeOuter(p, f.x, f.y, f.facingDeg), step.dx, step.dy);
-			const inner = translationSweep(scene.inner(p, f), step.dx, step.dy);
-			return { step, outer: [outer], inner: [inner], boxes: [boxOf(outer.pts, outer.r)] };
+			this.outer = [outer];
+			this.boxes = [boxOf(outer.pts, outer.r)];
+		} else {
+			this.outer = pivotSweep(p.local.outer, p.local.rMaxIn, f.x, f.y, f.facingDeg, step.deltaDeg);
+			this.boxes = this.outer.map((s) => boxOf(s.pts, s.r));
 		}
-		const outer = pivotSweep(p.local.outer, p.local.rMaxIn, f.x, f.y, f.facingDeg, step.deltaDeg);
-		const inner = pivotSweep(p.local.inner, p.local.rMaxIn, f.x, f.y, f.facingDeg, step.deltaDeg);
-		return { step, outer, inner, boxes: outer.map((s) => boxOf(s.pts, s.r)) };
-	});
+	}
+
+	/** the inner form where the leg starts */
+	get innerStart(): Rounded {
+		return (this._innerStart ??= this.scene.inner(this.p, this.step.from));
+	}
+
+	get inner(): Rounded[] {
+		if (this._inner) return this._inner;
+		const { step, p } = this;
+		const f = step.from;
+		if (step.kind === 'move') this._inner = [translationSweep(this.innerStart, step.dx, step.dy)];
+		else this._inner = pivotSweep(p.local.inner, p.local.rMaxIn, f.x, f.y, f.facingDeg, step.deltaDeg);
+		return this._inner;
+	}
+}
+
+function legsOf(scene: Scene, p: ScenePiece, steps: PathStep[]): Leg[] {
+	return steps.map((step) => new Leg(scene, p, step));
 }
 
 function placeOuter(p: ScenePiece, x: number, y: number, facingDeg: number): Rounded {
@@ -164,6 +187,8 @@ export function runCheck(request: CheckRequest): CheckReport {
 						if (prev === undefined || d < prev) minToOther.set(o, d);
 					}
 				}
+				// no terrain near the outer sweep: none near the inner one inside it
+				if (!scene.anyTerrainNear(box)) return;
 				const inner = leg.inner[si];
 				const innerBox = boxOf(inner.pts, inner.r);
 				for (const t of scene.terrainNear(innerBox)) {
@@ -176,7 +201,7 @@ export function runCheck(request: CheckRequest): CheckReport {
 						if (!climbs) continue;
 						if (leg.step.kind === 'move') {
 							{
-								for (const [a, b] of touchIntervals(scene.inner(m, leg.step.from), leg.step.dx, leg.step.dy, t)) {
+								for (const [a, b] of touchIntervals(leg.innerStart, leg.step.dx, leg.step.dy, t)) {
 									touches.push({ from: li + a, to: li + b, heightIn: t.heightIn });
 								}
 							}
@@ -294,23 +319,26 @@ export function runCheck(request: CheckRequest): CheckReport {
 				);
 			}
 		}
-		const endInner = scene.inner(m, m.endPose);
-		const endInnerBox = boxOf(endInner.pts, endInner.r);
-		for (const t of scene.terrainNear(endInnerBox)) {
-			const floor = t.kind === 'block' || (t.kind === 'ruin' && profile.ruinFloorOverhang);
-			if (floor && meetsRegion(endInner, t, endInnerBox)) {
-				const by = overhangOf(endInner, m.end, t);
-				if (by > 0) {
-					const what = t.kind === 'block' ? `block ${t.id}` : `the floor of ruin ${t.id}`;
-					add(
-						finding('overhang', [m.id], by, 0, `${m.id} overhangs ${what} by ${inches(by)} in; a piece on it must stand wholly within its outline`, {
-							terrain: t.id
-						})
-					);
+		// the end's inner form lies in its bounding box: no terrain there, none to meet
+		if (scene.anyTerrainNear(m.endBox)) {
+			const endInner = scene.inner(m, m.endPose);
+			const endInnerBox = boxOf(endInner.pts, endInner.r);
+			for (const t of scene.terrainNear(endInnerBox)) {
+				const floor = t.kind === 'block' || (t.kind === 'ruin' && profile.ruinFloorOverhang);
+				if (floor && meetsRegion(endInner, t, endInnerBox)) {
+					const by = overhangOf(endInner, m.end, t);
+					if (by > 0) {
+						const what = t.kind === 'block' ? `block ${t.id}` : `the floor of ruin ${t.id}`;
+						add(
+							finding('overhang', [m.id], by, 0, `${m.id} overhangs ${what} by ${inches(by)} in; a piece on it must stand wholly within its outline`, {
+								terrain: t.id
+							})
+						);
+					}
 				}
-			}
-			if (t.kind === 'impassable' && !impassable.has(t.id) && meetsRegion(endInner, t, endInnerBox)) {
-				add(finding('impassable', [m.id], distanceToRegion(m.end, t), 0, `${m.id} ends on impassable terrain ${t.id}`, { terrain: t.id }));
+				if (t.kind === 'impassable' && !impassable.has(t.id) && meetsRegion(endInner, t, endInnerBox)) {
+					add(finding('impassable', [m.id], distanceToRegion(m.end, t), 0, `${m.id} ends on impassable terrain ${t.id}`, { terrain: t.id }));
+				}
 			}
 		}
 	}

@@ -172,6 +172,12 @@ export class Scene {
 		return hits.map((i) => this.terrain[i]);
 	}
 
+	/** Whether any terrain's box comes within `margin` of `box` (a cheaper terrainNear(…).length > 0). */
+	anyTerrainNear(box: Box, margin = 0): boolean {
+		if (!this.terrainIndex) return false;
+		return this.terrainIndex.search(box.minX - margin, box.minY - margin, box.maxX + margin, box.maxY + margin).length > 0;
+	}
+
 	/** A piece's footprint shrunk by ε at a pose (terrain contact beyond ε is what counts). */
 	inner(p: ScenePiece, pose: PoseDeg): Rounded {
 		return place(p.local.inner, pose.x, pose.y, pose.facingDeg);
