@@ -192,13 +192,14 @@ export async function importDocument(doc: BackupDocument): Promise<ImportResult>
 				counts[table] = r.rowCount ?? 0;
 			}
 			// Serial ids: the next new row must come after the restored ones.
-			for (const table of BACKUP_TABLES) {
-				if (!doc.tables[table]?.length) continue;
-				await trx.raw(
-					`select setval(s, greatest((select coalesce(max(id), 0) from ${table}), 1), (select count(*) > 0 from ${table}))
-					 from pg_get_serial_sequence(?, 'id') as s where s is not null`,
-					[table]
-				);
+			const serials = await trx.raw(
+				`select table_name as t, pg_get_serial_sequence(quote_ident(table_name), 'id') as s from information_schema.columns
+				 where table_schema = current_schema() and column_name = 'id' and table_name = any(?)`,
+				[BACKUP_TABLES.filter((name) => doc.tables[name]?.length)]
+			);
+			for (const { t, s } of serials.rows as { t: BackupTable; s: string | null }[]) {
+				if (!s || !BACKUP_TABLES.includes(t)) continue;
+				await trx.raw(`select setval(?, greatest((select max(id) from ${t}), 1))`, [s]);
 			}
 			return counts;
 		});
