@@ -44,10 +44,13 @@ export class RateLimiter {
 		return kept;
 	}
 
-	check(key: string): Verdict {
+	/** `inFlight`: attempts under way for this key whose outcome is not known yet; they count. */
+	check(key: string, inFlight = 0): Verdict {
 		const at = this.now();
 		const times = this.recent(key, at);
-		if (times.length < this.limit) return { allowed: true, retryAfterSeconds: 0 };
+		if (times.length + inFlight < this.limit) return { allowed: true, retryAfterSeconds: 0 };
+		// Refused only because of attempts still being checked: those end within a second.
+		if (times.length < this.limit) return { allowed: false, retryAfterSeconds: 1 };
 		const freeAt = times[times.length - this.limit] + this.windowMs;
 		return { allowed: false, retryAfterSeconds: Math.max(1, Math.ceil((freeAt - at) / 1000)) };
 	}

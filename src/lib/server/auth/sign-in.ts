@@ -8,6 +8,8 @@ export const WRONG_CREDENTIALS = 'E-mail or password is wrong';
 export const TOO_MANY = 'Too many attempts. Wait a few minutes and try again.';
 
 const limits = signInLimitsFromEnv(process.env);
+/** Attempts being verified right now, per key (the limiters only hear of them afterwards). */
+const inFlight = { address: new Map<string, number>(), account: new Map<string, number>() };
 
 export type SignInResult =
 	| { kind: 'ok'; userId: string }
@@ -20,17 +22,30 @@ export async function checkCredentials(input: {
 	address: string;
 }): Promise<SignInResult> {
 	const accountKey = input.email.trim().toLowerCase();
+	const held = [
+		[limits.address, inFlight.address, input.address],
+		[limits.account, inFlight.account, accountKey]
+	] as const;
 	// Refused before any password work: a blocked caller learns nothing, not even "right".
-	for (const [limiter, key] of [
-		[limits.address, input.address],
-		[limits.account, accountKey]
-	] as const) {
-		const verdict = limiter.check(key);
+	// Attempts still being verified count too, or parallel attempts would all pass the check.
+	for (const [limiter, pending, key] of held) {
+		const verdict = limiter.check(key, pending.get(key) ?? 0);
 		if (!verdict.allowed) return { kind: 'limited', retryAfterSeconds: verdict.retryAfterSeconds };
 	}
+	for (const [, pending, key] of held) pending.set(key, (pending.get(key) ?? 0) + 1);
 
-	const user = await users.findByEmail(accountKey);
-	const ok = user ? await verifyPassword(user.passwordHash, input.password) : await burnVerify(input.password);
+	let user: Awaited<ReturnType<typeof users.findByEmail>>;
+	let ok: boolean;
+	try {
+		user = await users.findByEmail(accountKey);
+		ok = user ? await verifyPassword(user.passwordHash, input.password) : await burnVerify(input.password);
+	} finally {
+		for (const [, pending, key] of held) {
+			const n = (pending.get(key) ?? 1) - 1;
+			if (n > 0) pending.set(key, n);
+			else pending.delete(key);
+		}
+	}
 	if (!user || !ok) {
 		limits.account.fail(accountKey);
 		limits.address.fail(input.address);
