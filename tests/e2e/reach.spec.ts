@@ -72,6 +72,19 @@ test('pick a piece, see its reach, drag beyond it, take the nearest legal spot, 
 	await expect(page.getByTestId('board-canvas')).toHaveAttribute('data-ready', 'yes');
 	await expect(page.getByTestId('active-side')).toContainText("Side A's turn");
 	await page.getByRole('button', { name: /Signal Mast Crew/ }).click();
+	// zoom in about the unit (four wheel steps, ×1.35 each) and pan it to the board's middle, so
+	// the screenshots read; every later point is converted through the view the canvas reports
+	const about = await boardPoint(page, 20, 8);
+	await page.mouse.move(about.x, about.y);
+	for (let i = 0; i < 4; i++) await page.mouse.wheel(0, -200);
+	await expect.poll(async () => Number((await page.getByTestId('board-canvas').getAttribute('data-view'))!.split(' ')[0])).toBeGreaterThan(20);
+	const box = (await page.getByTestId('board-canvas').boundingBox())!;
+	const now = await boardPoint(page, 20, 8);
+	const empty = await boardPoint(page, 26, 14);
+	await page.mouse.move(empty.x, empty.y);
+	await page.mouse.down();
+	await page.mouse.move(empty.x + (box.x + box.width / 2 - now.x), empty.y + (box.y + box.height / 2 - now.y), { steps: 8 });
+	await page.mouse.up();
 
 	// --- pick a-u2-p2 up: its reach is mapped off the main thread and shaded --------------------
 	const p2 = await boardPoint(page, 20, 6);
@@ -85,11 +98,11 @@ test('pick a piece, see its reach, drag beyond it, take the nearest legal spot, 
 	expect(area).toBeGreaterThan(40);
 	expect(area).toBeLessThan(Math.PI * 25);
 	await expect(legend).toHaveAttribute('data-reach-shown', 'yes');
-	await page.screenshot({ path: shot('picked') });
+	await page.screenshot({ path: shot('picked'), fullPage: true });
 
 	await page.getByTestId('toggle-unit-maps').click();
 	await expect(page.getByTestId('unit-maps')).toContainText("the reach of 3 of the unit's pieces");
-	await page.screenshot({ path: shot('unit-maps') });
+	await page.screenshot({ path: shot('unit-maps'), fullPage: true });
 	await page.getByTestId('toggle-unit-maps').click();
 	await page.getByTestId('toggle-reach').click();
 	await expect(legend).toHaveAttribute('data-reach-shown', 'no');
@@ -105,7 +118,7 @@ test('pick a piece, see its reach, drag beyond it, take the nearest legal spot, 
 	await page.mouse.down();
 	await page.mouse.move(within.x, within.y, { steps: 10 });
 	await expect(page.getByTestId('route-readout')).toContainText(/Shortest legal route for a-u2-p2: (3\.9\d|4\.0\d) in of 5/);
-	await page.screenshot({ path: shot('dragging') });
+	await page.screenshot({ path: shot('dragging'), fullPage: true });
 	await page.mouse.move(beyond.x, beyond.y, { steps: 10 });
 	await page.mouse.up();
 	// 9 in straight ahead for a 5 in piece: the nearest legal end is 5 in out, about 4 in back
@@ -113,7 +126,7 @@ test('pick a piece, see its reach, drag beyond it, take the nearest legal spot, 
 	await expect(offer).toHaveText(/^Move to nearest legal spot \((3\.9\d|4\.0\d) in away\)$/);
 	await expect(page.getByTestId('live-verdict')).toContainText('Not legal');
 	await expect(page.getByTestId('spacing-warning')).toContainText('Spacing breaks at a-u2-p2');
-	await page.screenshot({ path: shot('offer') });
+	await page.screenshot({ path: shot('offer'), fullPage: true });
 
 	await offer.click();
 	await expect(offer).toHaveCount(0);
@@ -135,7 +148,7 @@ test('pick a piece, see its reach, drag beyond it, take the nearest legal spot, 
 	await expect(page.getByTestId('live-verdict')).toContainText('Legal so far');
 	await expect(page.getByTestId('spacing-warning')).toHaveCount(0);
 	await expect(page.getByTestId('nearest-offer')).toHaveCount(0);
-	await page.screenshot({ path: shot('legal') });
+	await page.screenshot({ path: shot('legal'), fullPage: true });
 
 	await page.getByRole('button', { name: 'Submit move' }).click();
 	await expect(page.getByTestId('pending-move')).toContainText('awaits acceptance');
@@ -144,5 +157,5 @@ test('pick a piece, see its reach, drag beyond it, take the nearest legal spot, 
 	const moved = state.game.state.pieces.find((p: { id: string }) => p.id === 'a-u2-p2');
 	expect(moved.at.y).toBeGreaterThan(10.9);
 	expect(moved.at.y).toBeLessThan(11.05);
-	await page.screenshot({ path: shot('accepted-by-server') });
+	await page.screenshot({ path: shot('accepted-by-server'), fullPage: true });
 });

@@ -73,6 +73,9 @@ export class PlayState {
 	offer = $state.raw<Offer | null>(null);
 	reachProblem = $state<string | null>(null);
 	private routes: RouteClient | null = null;
+	/** the newest drag route answered, applied with the next drag frame (one board redraw per frame) */
+	private latestRoute: { piece: string; route: RouteResult } | null = null;
+	private routeTimer: ReturnType<typeof setTimeout> | null = null;
 	private mapRoutes: RouteClient | null = null;
 	private pickGen = 0;
 	private mapsGen = 0;
@@ -244,7 +247,7 @@ export class PlayState {
 					drawn.add(key);
 					// the gap is measured here; whether spacing breaks is the engine's word (live check)
 					const ok = !broken.has(a.p.id) && !broken.has(best.b.p.id);
-					out.push({ kind: 'link', from: a.pose, to: best.b.pose, tone: ok ? 'ok' : 'signal', dashed: !ok, label: `${best.d.toFixed(2)} in${ok ? '' : ' (spacing breaks)'}` });
+					out.push({ kind: 'link', from: a.pose, to: best.b.pose, tone: ok ? 'ok' : 'signal', dashed: !ok, label: `${best.d.toFixed(2)} in` });
 				}
 			}
 			// Support rings of the unit's sources (radius from the footprint's edge, drawn from the centre).
@@ -263,7 +266,12 @@ export class PlayState {
 			// The finder's shortest legal route to the finger, and the nearest legal spot on offer.
 			const dr = this.dragRoute;
 			const from = dr ? s.pieces.find((q) => q.id === dr.piece)?.at : null;
-			if (dr && from) out.push(...routeShading(from, dr.route));
+			if (dr && from) {
+				// the route's cost on the board only where it says more than the dragged path's own label
+				const dragged = this.breakdown.find((b) => b.piece === dr.piece)?.cost;
+				const same = !dr.route.reachable || (dragged !== undefined && Math.abs(dragged - dr.route.costIn) < 0.01);
+				out.push(...routeShading(from, dr.route, { label: !same }));
+			}
 			const o = this.offer;
 			if (o?.kind === 'spot') out.push({ kind: 'ring', x: o.at.x, y: o.at.y, radiusIn: 0.35, tone: 'ok', label: 'nearest legal spot' });
 		}
@@ -278,7 +286,7 @@ export class PlayState {
 		for (const b of this.spacing) {
 			const p = s.pieces.find((q) => q.id === b.piece);
 			const pose = p ? this.draftPose(p) : null;
-			if (pose) out.push({ kind: 'warning', x: pose.x + 0.9, y: pose.y - 0.9, label: `spacing breaks: ${b.measuredIn.toFixed(2)} in` });
+			if (pose) out.push({ kind: 'warning', x: pose.x + 0.9, y: pose.y - 0.9, label: 'spacing' });
 		}
 		// The move awaiting acceptance, drawn for both players.
 		const pend = this.pending;
@@ -463,8 +471,20 @@ export class PlayState {
 	private askRoute(piece: string, x: number, y: number): void {
 		if (!this.routes || (this.reach?.piece !== piece && this.picked !== piece)) return;
 		void this.routes.findRoute(x, y).then((route) => {
-			if (route && this.grab?.piece === piece) this.dragRoute = { piece, route };
+			if (!route || this.grab?.piece !== piece) return;
+			// Held until the next drag frame, which redraws the board anyway; if the finger rests,
+			// shown shortly after.
+			this.latestRoute = { piece, route };
+			this.routeTimer ??= setTimeout(() => this.applyRoute(), 50);
 		});
+	}
+
+	private applyRoute(): void {
+		if (this.routeTimer) clearTimeout(this.routeTimer);
+		this.routeTimer = null;
+		const r = this.latestRoute;
+		this.latestRoute = null;
+		if (r && this.grab?.piece === r.piece) this.dragRoute = r;
 	}
 
 	/** After a drop: if the finder cannot reach the spot, offer the nearest legal one. */
@@ -556,6 +576,7 @@ export class PlayState {
 			const y = e.at.y - g.dy;
 			const last = trace[trace.length - 1];
 			if (Math.hypot(x - last.x, y - last.y) < TRACE_STEP_IN) return;
+			if (this.latestRoute) this.applyRoute();
 			this.drafts = { ...this.drafts, [g.piece]: [...trace, { x, y }] };
 			if (!g.redeploy) this.askRoute(g.piece, x, y);
 			return;
@@ -747,6 +768,8 @@ export class PlayState {
 	disconnect(): void {
 		this.events?.close();
 		this.events = null;
+		if (this.routeTimer) clearTimeout(this.routeTimer);
+		this.routeTimer = null;
 		this.routes?.dispose();
 		this.mapRoutes?.dispose();
 		this.routes = null;

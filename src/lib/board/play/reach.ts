@@ -89,13 +89,16 @@ export function routeWords(route: RouteResult): string {
 	return route.reason ?? 'no legal route ends here';
 }
 
-/** The route from the piece's start to the finger as overlays: the line, its cost, a warning when refused. */
-export function routeShading(start: { x: number; y: number }, route: RouteResult): Overlay[] {
+/**
+ * The route from the piece's start to the finger as overlays: the line (dashed signal when it is
+ * not a legal route) and, unless `label` is false (the dragged path's own label says the same), its cost.
+ */
+export function routeShading(start: { x: number; y: number }, route: RouteResult, opts: { label?: boolean } = {}): Overlay[] {
 	if (!route.waypoints.length) return [];
 	const points = [{ x: start.x, y: start.y }, ...route.waypoints.map((w) => ({ x: w.x, y: w.y }))];
 	const end = points[points.length - 1];
 	const out: Overlay[] = [{ kind: 'path', points, tone: route.reachable ? 'ink' : 'signal', dashed: !route.reachable, arrow: true }];
-	out.push({ kind: 'label', x: end.x, y: end.y + 1.2, text: `route ${routeWords(route)}`, tone: route.reachable ? 'ink' : 'signal' });
+	if (opts.label ?? true) out.push({ kind: 'label', x: end.x, y: end.y + 1.2, text: `route ${routeWords(route)}`, tone: route.reachable ? 'ink' : 'signal' });
 	return out;
 }
 
