@@ -3,6 +3,7 @@
 // ellipse an oval's polygon is inscribed in) and how far it surely extends along a ray from its
 // reference point (bounded from below). Bounds of the engine's own shapes, never approximations.
 import type { LocalFootprint } from './footprints';
+import type { PivotCover } from './sweep';
 
 /**
  * Slack for floating-point rounding, in inches: a million times the rounding of figures on a
@@ -143,4 +144,21 @@ export function lowerSweepGap(A: Reach, fa: Frame, dx: number, dy: number, B: Re
 	const uy = wy / L;
 	const along = ux * dx + uy * dy;
 	return ux * (fb.x - fa.x) + uy * (fb.y - fa.y) - support(A, fa, ux, uy) - Math.max(0, along) - support(B, fb, -ux, -uy);
+}
+
+/**
+ * Lower bound on the signed distance between piece i of a turn's cover (the hull of copies i and
+ * i + 1 of A about the turn's centre, grown by the sagitta) and B still at fb: separation along
+ * the line of centres, taking the farther-reaching of the two copies.
+ */
+export function lowerPivotGap(A: Reach, cover: PivotCover, i: number, B: Reach, fb: Frame): number {
+	const f0 = frameOf(cover.x, cover.y, cover.facingOf(i));
+	const dx = fb.x - f0.x;
+	const dy = fb.y - f0.y;
+	const L = Math.sqrt(dx * dx + dy * dy);
+	if (!(L > 0)) return -Infinity;
+	const ux = dx / L;
+	const uy = dy / L;
+	const f1 = frameOf(cover.x, cover.y, cover.facingOf(i + 1));
+	return L - Math.max(support(A, f0, ux, uy), support(A, f1, ux, uy)) - cover.sagitta - support(B, fb, -ux, -uy);
 }

@@ -5,11 +5,11 @@ import { boxOf, pointSegmentDistance, signedDistance, type Box, type Rounded } f
 import { classList, inches, limitText } from './messages';
 import { climbIn, horizontalIn, pathSteps, pivotIn, type PathStep, type Touch } from './path-cost';
 import { resolveProfile } from './profile';
-import { frameOf, lowerSweepGap } from './bounds';
+import { frameOf, lowerPivotGap, lowerSweepGap } from './bounds';
 import { pairGap, Scene, type ScenePiece } from './scene';
 import { spacingFindings } from './spacing';
 import { objectiveSummaries, ringSummaries } from './summaries';
-import { pivotSweep, translationSweep } from './sweep';
+import { PivotCover, translationSweep } from './sweep';
 import { distanceToRegion, meetsRegion, overhangOf, touchIntervals, wallMet, type PreparedTerrain } from './terrain';
 
 function finding(
@@ -26,13 +26,18 @@ function finding(
 }
 
 /**
- * The swept regions of one leg: outer (for pieces) and inner (shrunk by ε, for terrain). The
- * inner forms lie inside the outer ones, so they are built only when terrain is near the outer.
+ * The swept regions of one leg, piece by piece (a turn is covered by several): outer (for
+ * pieces) and inner (shrunk by ε, for terrain). Each is built only when a test reaches it: the
+ * inner forms lie inside the outer ones, so they are needed only when terrain is near the outer.
  */
 class Leg {
-	readonly outer: Rounded[];
-	readonly boxes: Box[];
-	private _inner: Rounded[] | null = null;
+	/** how many pieces cover the leg */
+	readonly count: number;
+	private readonly boxes: Box[];
+	private readonly outerCover: PivotCover | null = null;
+	private innerCover: PivotCover | null = null;
+	private outerSweep: Rounded | null = null;
+	private innerSweep: Rounded | null = null;
 	private _innerStart: Rounded | null = null;
 
 	constructor(
@@ -43,12 +48,30 @@ class Leg {
 		const f = step.from;
 		if (step.kind === 'move') {
 			const outer = translationSweep(placeOuter(p, f.x, f.y, f.facingDeg), step.dx, step.dy);
-			this.outer = [outer];
+			this.outerSweep = outer;
+			this.count = 1;
 			this.boxes = [boxOf(outer.pts, outer.r)];
 		} else {
-			this.outer = pivotSweep(p.local.outer, p.local.rMaxIn, f.x, f.y, f.facingDeg, step.deltaDeg);
-			this.boxes = this.outer.map((s) => boxOf(s.pts, s.r));
+			const cover = new PivotCover(p.local.outer, p.local.rMaxIn, f.x, f.y, f.facingDeg, step.deltaDeg);
+			this.outerCover = cover;
+			// a round base's copies are one and the same disk: one of them answers for all
+			this.count = p.round ? 1 : cover.count;
+			this.boxes = [];
+			for (let i = 0; i < this.count; i++) this.boxes.push(cover.box(i));
 		}
+	}
+
+	box(i: number): Box {
+		return this.boxes[i];
+	}
+
+	outer(i: number): Rounded {
+		return this.outerSweep ?? this.outerCover!.piece(i);
+	}
+
+	/** the pivot's cover (null for a straight leg), for distance brackets */
+	get cover(): PivotCover | null {
+		return this.outerCover;
 	}
 
 	/** the inner form where the leg starts */
@@ -56,13 +79,12 @@ class Leg {
 		return (this._innerStart ??= this.scene.inner(this.p, this.step.from));
 	}
 
-	get inner(): Rounded[] {
-		if (this._inner) return this._inner;
+	inner(i: number): Rounded {
 		const { step, p } = this;
+		if (step.kind === 'move') return (this.innerSweep ??= translationSweep(this.innerStart, step.dx, step.dy));
 		const f = step.from;
-		if (step.kind === 'move') this._inner = [translationSweep(this.innerStart, step.dx, step.dy)];
-		else this._inner = pivotSweep(p.local.inner, p.local.rMaxIn, f.x, f.y, f.facingDeg, step.deltaDeg);
-		return this._inner;
+		this.innerCover ??= new PivotCover(p.local.inner, p.local.rMaxIn, f.x, f.y, f.facingDeg, step.deltaDeg);
+		return this.innerCover.piece(i);
 	}
 }
 
@@ -165,8 +187,9 @@ export function runCheck(request: CheckRequest): CheckReport {
 		legs.forEach((leg, li) => {
 			// the frame the leg starts from, for the sweep's distance brackets (straight legs only)
 			const legFrame = leg.step.kind === 'move' ? frameOf(leg.step.from.x, leg.step.from.y, leg.step.from.facingDeg) : null;
-			leg.outer.forEach((sw, si) => {
-				const box = leg.boxes[si];
+			const cover = leg.cover;
+			for (let si = 0; si < leg.count; si++) {
+				const box = leg.box(si);
 				worstOffBoard = Math.max(worstOffBoard, offBoardBy(box, widthIn, depthIn));
 				if (!m.flies) {
 					const f = leg.step.from;
@@ -181,15 +204,18 @@ export function runCheck(request: CheckRequest): CheckReport {
 						// unit-mates that also move are not where they started, so they do not block each other;
 						// a unit-mate that stays put is an obstacle like any friendly piece
 						if (o.member && o.moved) continue;
-						if (legFrame && !(m.round && o.round) && lowerSweepGap(m.reach, legFrame, dx, dy, o.reach, o.startFrame) > need) continue;
-						const d = signedDistance(sw, o.start);
+						if (!(m.round && o.round)) {
+							if (legFrame && lowerSweepGap(m.reach, legFrame, dx, dy, o.reach, o.startFrame) > need) continue;
+							if (cover && lowerPivotGap(m.reach, cover, si, o.reach, o.startFrame) > need) continue;
+						}
+						const d = signedDistance(leg.outer(si), o.start);
 						const prev = minToOther.get(o);
 						if (prev === undefined || d < prev) minToOther.set(o, d);
 					}
 				}
 				// no terrain near the outer sweep: none near the inner one inside it
-				if (!scene.anyTerrainNear(box)) return;
-				const inner = leg.inner[si];
+				if (!scene.anyTerrainNear(box)) continue;
+				const inner = leg.inner(si);
 				const innerBox = boxOf(inner.pts, inner.r);
 				for (const t of scene.terrainNear(innerBox)) {
 					if (t.kind === 'impassable' && (!m.flies || !profile.fliersCrossImpassable)) {
@@ -200,10 +226,8 @@ export function runCheck(request: CheckRequest): CheckReport {
 						if (!m.flies && !climbers.has(m.src.class) && !blocked.has(t.id) && meetsRegion(inner, t, innerBox)) blocked.set(t.id, t);
 						if (!climbs) continue;
 						if (leg.step.kind === 'move') {
-							{
-								for (const [a, b] of touchIntervals(leg.innerStart, leg.step.dx, leg.step.dy, t)) {
-									touches.push({ from: li + a, to: li + b, heightIn: t.heightIn });
-								}
+							for (const [a, b] of touchIntervals(leg.innerStart, leg.step.dx, leg.step.dy, t)) {
+								touches.push({ from: li + a, to: li + b, heightIn: t.heightIn });
 							}
 						} else if (meetsRegion(inner, t, innerBox)) {
 							// a turn touching a block: treat the whole turn as on it (conservative)
@@ -211,7 +235,7 @@ export function runCheck(request: CheckRequest): CheckReport {
 						}
 					}
 				}
-			});
+			}
 		});
 
 		const horizontal = horizontalIn(steps);

@@ -28,6 +28,12 @@ export function convexHull(flat: number[]): number[] {
 	const idx: number[] = [];
 	for (let i = 0; i < n; i++) idx.push(i);
 	idx.sort((i, j) => flat[2 * i] - flat[2 * j] || flat[2 * i + 1] - flat[2 * j + 1]);
+	return monotoneChain(flat, idx);
+}
+
+/** The hull's two chains over points already in (x, y) order (ties in index order). */
+function monotoneChain(flat: number[], idx: number[]): number[] {
+	const n = flat.length / 2;
 	const hull: number[] = [];
 	const turn = (o: number, a: number, b: number) =>
 		cross(flat[2 * a] - flat[2 * o], flat[2 * a + 1] - flat[2 * o + 1], flat[2 * b] - flat[2 * o], flat[2 * b + 1] - flat[2 * o + 1]);
@@ -47,6 +53,66 @@ export function convexHull(flat: number[]): number[] {
 	if (out.length === 0 && n > 0) out.push(flat[0], flat[1]);
 	// All points equal: the chain keeps two copies of one point.
 	if (out.length === 4 && out[0] === out[2] && out[1] === out[3]) out.length = 2;
+	return out;
+}
+
+/**
+ * The hull of two convex CCW polygons, exactly convexHull(a.concat(b)): each polygon's vertices
+ * come in (x, y) order by merging its two chains, and the two lists merge in O(n), instead of a
+ * sort. If rounding left a polygon not quite convex the order check fails and the sort decides.
+ */
+export function convexHullOfTwo(a: number[], b: number[]): number[] {
+	const flat = a.concat(b);
+	const n = flat.length / 2;
+	const before = (i: number, j: number) => {
+		const d = flat[2 * i] - flat[2 * j] || flat[2 * i + 1] - flat[2 * j + 1];
+		return d < 0 || (d === 0 && i < j);
+	};
+	const merged = mergeOrders(chainOrder(flat, 0, a.length / 2), chainOrder(flat, a.length / 2, n), before);
+	for (let k = 1; k < merged.length; k++) {
+		if (!before(merged[k - 1], merged[k])) return convexHull(flat);
+	}
+	if (merged.length !== n) return convexHull(flat);
+	return monotoneChain(flat, merged);
+}
+
+/** Vertex indices [from, to) of a convex CCW polygon inside `flat`, in (x, y) order if it is convex. */
+function chainOrder(flat: number[], from: number, to: number): number[] {
+	const m = to - from;
+	if (m <= 2) {
+		const out: number[] = [];
+		for (let i = from; i < to; i++) out.push(i);
+		return out;
+	}
+	let lo = from;
+	let hi = from;
+	for (let i = from + 1; i < to; i++) {
+		const dx = flat[2 * i] - flat[2 * lo] || flat[2 * i + 1] - flat[2 * lo + 1];
+		if (dx < 0) lo = i;
+		const dh = flat[2 * i] - flat[2 * hi] || flat[2 * i + 1] - flat[2 * hi + 1];
+		if (dh > 0) hi = i;
+	}
+	// lower chain: counter-clockwise from the least to the greatest; upper: clockwise
+	const lower: number[] = [];
+	for (let i = lo; ; i = i + 1 === to ? from : i + 1) {
+		lower.push(i);
+		if (i === hi) break;
+	}
+	const upper: number[] = [];
+	for (let i = lo === from ? to - 1 : lo - 1; i !== hi; i = i === from ? to - 1 : i - 1) upper.push(i);
+	return mergeOrders(lower, upper, (i, j) => {
+		const d = flat[2 * i] - flat[2 * j] || flat[2 * i + 1] - flat[2 * j + 1];
+		return d < 0 || (d === 0 && i < j);
+	});
+}
+
+function mergeOrders(x: number[], y: number[], before: (i: number, j: number) => boolean): number[] {
+	const out: number[] = [];
+	let i = 0;
+	let j = 0;
+	while (i < x.length && j < y.length) out.push(before(y[j], x[i]) ? y[j++] : x[i++]);
+	while (i < x.length) out.push(x[i++]);
+	while (j < y.length) out.push(y[j++]);
 	return out;
 }
 
