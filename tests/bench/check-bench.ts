@@ -1,5 +1,6 @@
 // `npm run bench`: times the engine's checkMove against the JSTS reference on a 300-piece,
 // 20-terrain table, and confirms both give the same verdicts and findings on random moves.
+import os from 'node:os';
 import { checkMove, type CheckRequest } from '../../src/lib/referee/index';
 import { referenceCheck, type Finding, type RefReport, type RefRequest } from './reference-check';
 import { benchMove, makeTable, randomMove } from './scene';
@@ -8,6 +9,8 @@ const TABLE_SEED = 1;
 const AGREEMENT_MOVES = 240;
 const TARGET_RATIO = 20;
 const TARGET_MEDIAN_MS = 1;
+/** Not a hard target: the oval figure is reported, aiming at 2 ms or less. */
+const AIM_OVAL_MS = 2;
 
 const engine = (req: RefRequest) => checkMove(req as CheckRequest) as unknown as RefReport;
 
@@ -65,6 +68,7 @@ function main(): number {
 	const unit20 = units.find((u) => size(u) === 20)!;
 	const unit60 = units.find((u) => size(u) === 60)!;
 	const unit1 = units.find((u) => size(u) === 1)!;
+	const unitOval = units.find((u) => size(u) === 20 && table.pieces.find((p) => p.unit === u)!.footprint.shape === 'oval')!;
 	console.log(`table: ${table.pieces.length} pieces, ${table.board.terrain!.length} terrain pieces, seed ${TABLE_SEED}`);
 
 	const move20 = benchMove(table, unit20, 90);
@@ -79,8 +83,10 @@ function main(): number {
 	console.log(`ratio            ${ratio.toFixed(1)}x`);
 	const ms1 = time(engine, benchMove(table, unit1, 90), 300, 1000);
 	const ms60 = time(engine, benchMove(table, unit60, 90), 100, 300);
+	const msOval = time(engine, benchMove(table, unitOval, 90), 200, 600);
 	console.log(`engine median, 1-piece unit ${unit1}:   ${ms1.toFixed(3)} ms`);
 	console.log(`engine median, 60-piece unit ${unit60}: ${ms60.toFixed(3)} ms`);
+	console.log(`engine median, 20-piece oval unit ${unitOval}: ${msOval.toFixed(3)} ms (aim ${AIM_OVAL_MS} ms, not a hard target)`);
 
 	let agree = 0;
 	const verdicts = { legal: 0, illegal: 0 };
@@ -110,6 +116,16 @@ function main(): number {
 	console.log(`verdicts (reference): ${verdicts.legal} legal, ${verdicts.illegal} illegal`);
 	console.log(`finding codes seen (moves with each): ${[...codes].sort().map(([c, n]) => `${c} ${n}`).join(', ')}`);
 	for (const d of disagreements) console.log(`DISAGREEMENT ${d}`);
+
+	const [load1] = os.loadavg();
+	console.log('');
+	console.log(`SUMMARY (load average ${load1.toFixed(2)}; medians of one checkMove on the ${table.pieces.length}-piece table)`);
+	console.log(`  1-piece unit        ${ms1.toFixed(3)} ms`);
+	console.log(`  20-piece round unit ${engMs.toFixed(3)} ms   target <= ${TARGET_MEDIAN_MS} ms: ${engMs <= TARGET_MEDIAN_MS ? 'met' : 'MISSED'}`);
+	console.log(`  20-piece oval unit  ${msOval.toFixed(3)} ms   aim <= ${AIM_OVAL_MS} ms: ${msOval <= AIM_OVAL_MS ? 'met' : 'not met'} (not a hard target)`);
+	console.log(`  60-piece round unit ${ms60.toFixed(3)} ms`);
+	console.log(`  reference / engine  ${ratio.toFixed(1)}x   target >= ${TARGET_RATIO}x: ${ratio >= TARGET_RATIO ? 'met' : 'MISSED'}`);
+	console.log(`  agreement           ${agree} of ${timedCases.length} moves, ${disagreements.length} disagreement(s)`);
 
 	const failures: string[] = [];
 	if (disagreements.length) failures.push(`${disagreements.length} disagreement(s)`);

@@ -2,12 +2,14 @@
 // on seeded random pairs of round, oval (long and wide) and hull footprints (reference point
 // inside or outside), the lower bounds never exceed the exact signed distance of the engine's
 // own shapes, and the upper bound never falls below it; the brackets are tight enough to be
-// worth having (a lower bound within 0.02 in of the figure on most apart pairs).
+// worth having (a lower bound within 0.02 in of the figure on most apart pairs). And the fast
+// paths of a turn's cover: the hull of two turned copies by merging equals the sorted hull, and
+// a piece's box from the copies equals the box of the piece.
 import { describe, expect, it } from 'vitest';
 import { frameOf, lowerGap, lowerSweepGap, reachOfLocal, upperGap } from '../../../src/lib/referee/bounds';
-import { signedDistance, signedDistancePointConvex } from '../../../src/lib/referee/convex';
+import { boxOf, convexHull, convexHullOfTwo, signedDistance, signedDistancePointConvex } from '../../../src/lib/referee/convex';
 import { localFootprint, place } from '../../../src/lib/referee/footprints';
-import { translationSweep } from '../../../src/lib/referee/sweep';
+import { PivotCover, translationSweep } from '../../../src/lib/referee/sweep';
 import type { FootprintIn } from '../../../src/lib/schemas/check';
 import { EPS, rng } from './helpers';
 
@@ -77,5 +79,36 @@ describe('distance brackets', () => {
 		const fp: FootprintIn = { shape: 'hull', points: [[2, 0], [3, 0], [3, 1], [2, 1]] };
 		const R = reachFor(fp);
 		expect(upperGap(R, frameOf(0, 0, 0), R, frameOf(1, 0, 180))).toBe(Infinity);
+	});
+});
+
+describe('turn covers', () => {
+	it('hull two turned copies exactly as the sorted hull of all their points does', () => {
+		const r = rng(7);
+		for (let i = 0; i < 1500; i++) {
+			const fp = randomFootprint(r);
+			const local = localFootprint(fp, EPS)[r() < 0.5 ? 'outer' : 'inner'];
+			const x = r() * 40;
+			const y = r() * 40;
+			// whole quarter turns too, where vertices share coordinates
+			const facing = r() < 0.2 ? Math.round(r() * 8) * 45 : r() * 720 - 360;
+			const turn = r() < 0.2 ? 90 : (r() - 0.5) * 6;
+			const a = place(local, x, y, facing).pts;
+			const b = place(local, x, y, facing + turn).pts;
+			expect(convexHullOfTwo(a, b)).toEqual(convexHull(a.concat(b)));
+		}
+	});
+
+	it("give each piece's box without its hull, equal to the piece's own box", () => {
+		const r = rng(8);
+		for (let i = 0; i < 200; i++) {
+			const fp = randomFootprint(r);
+			const local = localFootprint(fp, EPS);
+			const cover = new PivotCover(local.outer, local.rMaxIn, r() * 40, r() * 40, r() * 360, (r() - 0.5) * 300);
+			for (let k = 0; k < cover.count; k++) {
+				const piece = cover.piece(k);
+				expect(cover.box(k)).toEqual(boxOf(piece.pts, piece.r));
+			}
+		}
 	});
 });
