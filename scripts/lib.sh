@@ -146,6 +146,8 @@ start_fake_payments() { start_fake "$(port_of "$STRIPE_API_BASE")" "the fake pay
 
 cleanup() {
 	local pid
+	# Finish the cleanup even when Ctrl-C also closed the terminal pipe we print to.
+	trap '' PIPE INT TERM
 	for pid in "${STARTED_PIDS[@]:-}"; do
 		[ -n "$pid" ] && kill "$pid" 2>/dev/null || true
 	done
@@ -153,7 +155,7 @@ cleanup() {
 		[ -n "$pid" ] && wait "$pid" 2>/dev/null || true
 	done
 	if [ "$STARTED_PG" = 1 ]; then
-		log "stopping PostgreSQL"
+		log "stopping PostgreSQL" 2>/dev/null || true
 		as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" -m fast -w stop >/dev/null 2>&1 || true
 	fi
 }
