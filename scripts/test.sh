@@ -62,7 +62,7 @@ stage "playwright" node_modules/.bin/playwright test
 
 echo
 if [ "${#FAILED[@]}" -gt 0 ]; then
-	log "FAILED: ${FAILED[*]}"
+	log "FAILED: ${FAILED[*]} (after ${SECONDS}s)"
 	exit 1
 fi
-log "all stages passed: svelte-check, vitest, playwright"
+log "all stages passed: svelte-check, vitest, playwright (in ${SECONDS}s)"
