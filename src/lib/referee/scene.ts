@@ -160,9 +160,29 @@ export class Scene {
 	/** Pieces whose footprint after the move comes within `margin` of `box`, in request order. */
 	nearEnd(box: Box, margin: number): ScenePiece[] {
 		const out = this.nearStart(box, margin).filter((p) => !p.moved);
-		for (const m of this.members) if (m.moved && boxesMeet(box, m.endBox, margin)) out.push(m);
+		const moved = this.movedIndex();
+		if (moved) {
+			// the index's hits (a little wide for rounding) are then held to the very box test
+			const w = margin + 1e-9;
+			for (const i of moved.index.search(box.minX - w, box.minY - w, box.maxX + w, box.maxY + w)) {
+				const m = moved.pieces[i];
+				if (boxesMeet(box, m.endBox, margin)) out.push(m);
+			}
+		}
 		return out.sort((a, b) => a.idx - b.idx);
 	}
+
+	/** A flatbush of the moved pieces' end boxes, built on first use; null when nothing moved. */
+	private movedIndex(): { index: Flatbush; pieces: ScenePiece[] } | null {
+		if (this._moved !== undefined) return this._moved;
+		const pieces = this.members.filter((m) => m.moved);
+		if (pieces.length === 0) return (this._moved = null);
+		const index = new Flatbush(pieces.length);
+		for (const m of pieces) index.add(m.endBox.minX, m.endBox.minY, m.endBox.maxX, m.endBox.maxY);
+		index.finish();
+		return (this._moved = { index, pieces });
+	}
+	private _moved: { index: Flatbush; pieces: ScenePiece[] } | null | undefined = undefined;
 
 	/** Terrain whose outline or walls' box comes within `margin` of `box`, in request order. */
 	terrainNear(box: Box, margin = 0): PreparedTerrain[] {
