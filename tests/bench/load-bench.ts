@@ -6,6 +6,7 @@
 // BENCH_BASE_URL at another one (the test server of `npm test` works too). The bench signs in
 // as a demo player (BENCH_EMAIL / BENCH_PASSWORD), saves a roster and sets up its own
 // one-tablet games, so it never touches anyone's game.
+import { cpus, loadavg } from 'node:os';
 import autocannon from 'autocannon';
 import { LAYOUT, UNITS_A } from '../unit/games/fixtures';
 
@@ -186,6 +187,8 @@ async function main(): Promise<void> {
 	console.log(line(`commit (move/take-back), flat out`, commitMax, ok(commitMax.p99 <= TARGET.commitP99Ms) + ` (p99 ≤ ${TARGET.commitP99Ms} ms)`));
 	console.log(line(`commit, offered 100 req/s`, commitAt100, ok(commitAt100.p99 <= TARGET.commitP99Ms) + ` (p99 ≤ ${TARGET.commitP99Ms} ms)`));
 	console.log(`\ncheck: ${ok(checkMet)}; commit: ${ok(commitMet)}`);
+	// Figures from a shared machine mean little without its load: say what it was.
+	console.log(`machine: ${cpus().length} cores, load average ${loadavg().map((l) => l.toFixed(2)).join(' / ')} (1/5/15 min) at the end of the run`);
 	if (process.env.BENCH_JSON) console.log(JSON.stringify({ checkMax, checkAtTarget, commitMax, commitAt100 }));
 }
 

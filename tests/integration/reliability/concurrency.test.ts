@@ -108,6 +108,7 @@ describe('50 concurrent commits to one game from two clients', () => {
 		// 50 commits in flight at once: 25 workers per tablet, one commit each.
 		await Promise.all(Array.from({ length: 50 }, (_, n) => worker(tabletsA[n % 2], [n])));
 		expect(acked.size).toBe(50);
+		console.log(`concurrency stream: 50 commits acknowledged after ${conflicts} answers of 409 (retried with the state they carried)`);
 		expect(conflicts).toBeGreaterThan(0); // they really did collide
 		const entries = await fullLog();
 		expectGapFree(entries);
