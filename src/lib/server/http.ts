@@ -35,8 +35,16 @@ export async function parseJson<S extends z.ZodType>(
 	let raw: unknown;
 	try {
 		raw = await request.json();
-	} catch {
+	} catch (err) {
+		// The server's body limit surfaces here as an error carrying status 413.
+		if ((err as { status?: number } | null)?.status === 413) {
+			return { ok: false, response: jsonError(413, 'The request body is too large') };
+		}
 		return { ok: false, response: jsonError(400, 'The request body is not valid JSON') };
+	}
+	if (hasNulCharacter(raw)) {
+		// PostgreSQL text cannot hold U+0000: refuse it here rather than fail in the database.
+		return { ok: false, response: jsonError(400, 'The request body contains a NUL character (\\u0000), which no field accepts') };
 	}
 	const parsed = schema.safeParse(raw);
 	if (!parsed.success) {
@@ -60,4 +68,23 @@ export async function formFields(request: Request): Promise<Record<string, strin
 	} catch {
 		return null;
 	}
+}
+
+/** Whether any string (or key) in a parsed JSON value contains U+0000. Iterative: deep nesting cannot overflow the stack. */
+export function hasNulCharacter(value: unknown): boolean {
+	const stack: unknown[] = [value];
+	while (stack.length > 0) {
+		const v = stack.pop();
+		if (typeof v === 'string') {
+			if (v.includes('\u0000')) return true;
+		} else if (Array.isArray(v)) {
+			for (const x of v) stack.push(x);
+		} else if (v !== null && typeof v === 'object') {
+			for (const [k, x] of Object.entries(v)) {
+				if (k.includes('\u0000')) return true;
+				stack.push(x);
+			}
+		}
+	}
+	return false;
 }
