@@ -28,7 +28,9 @@ export function ovalVertexCount(semiLengthIn: number): number {
 }
 
 function ovalPolygon(a: number, b: number, inset: number): { pts: number[]; chordError: number } {
-	const n = ovalVertexCount(a);
+	// the count follows the larger semi-axis, so an oval wider than long is as fine as any
+	const major = Math.max(a, b);
+	const n = ovalVertexCount(major);
 	const pts: number[] = [];
 	for (let i = 0; i < n; i++) {
 		const t = (2 * Math.PI * i) / n;
@@ -46,7 +48,7 @@ function ovalPolygon(a: number, b: number, inset: number): { pts: number[]; chor
 		}
 		pts.push(x, y);
 	}
-	return { pts, chordError: a * (1 - Math.cos(Math.PI / n)) };
+	return { pts, chordError: major * (1 - Math.cos(Math.PI / n)) };
 }
 
 const cache = new Map<string, LocalFootprint>();

@@ -1,6 +1,7 @@
 // Path cost (horizontal, pivots, climbs), units and summaries, with hand-worked values.
 // 25.4 mm per inch: NIST SP 811 (2008), appendix B. Trade facts (3 in from a 40 mm marker, 6 in
 // support ring, the climb example 1 + 2 + 2 + 2 = 7 in > 6 in): common practice, no published source.
+import { signedDistancePointConvex } from '../../../src/lib/referee/convex';
 import { describe, expect, it } from 'vitest';
 import {
 	angleDeltaDeg,
@@ -38,6 +39,21 @@ describe('units and profile', () => {
 			const a = lengthMm / 25.4 / 2;
 			const n = ovalVertexCount(a);
 			expect(a * (1 - Math.cos(Math.PI / n)) / 2).toBeLessThanOrEqual(0.0002 + 1e-12);
+		}
+	});
+	it('an oval wider than long is as close to its curve as any (the count follows the larger axis)', () => {
+		for (const [lengthMm, widthMm] of [[35, 60], [60, 35], [42, 75]]) {
+			const fp = localFootprint({ shape: 'oval', lengthMm, widthMm }, 0.005);
+			const a = lengthMm / 25.4 / 2;
+			const b = widthMm / 25.4 / 2;
+			let worst = 0;
+			for (let i = 0; i < 4000; i++) {
+				const t = (2 * Math.PI * i) / 4000;
+				// distance of a point of the true ellipse from the rounded polygon's edge
+				const d = signedDistancePointConvex(a * Math.cos(t), b * Math.sin(t), fp.outer.pts) - fp.outer.r;
+				worst = Math.max(worst, Math.abs(d));
+			}
+			expect(worst).toBeLessThanOrEqual(0.0002 + 1e-9);
 		}
 	});
 });
