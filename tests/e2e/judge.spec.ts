@@ -56,8 +56,13 @@ test('a player asks for a ruling; a judge takes it, replays and adjusts the move
 	await player.goto(`/games/${gameId}/replay`);
 	await expect(player.getByTestId('replay-position')).toContainText(`#${moveSeq}`);
 	await expect(player.getByTestId('fold-agrees')).toBeVisible();
-	await player.getByRole('button', { name: `Ask for a ruling on #${moveSeq}` }).click();
-	await player.getByLabel('What should the judge look at?').fill('The lead piece looks a little far forward');
+	// On a busy machine the first tap can land before the page has hydrated: tap until the form opens.
+	const note = player.getByLabel('What should the judge look at?');
+	await expect(async () => {
+		await player.getByRole('button', { name: `Ask for a ruling on #${moveSeq}` }).click();
+		await expect(note).toBeVisible({ timeout: 2000 });
+	}).toPass({ timeout: 30_000 });
+	await note.fill('The lead piece looks a little far forward');
 	await player.getByRole('button', { name: 'Send the request' }).click();
 	await expect(player.getByTestId('game-requests')).toContainText('open');
 	const requests = await (await player.request.get(`/api/v1/rulings?game=${gameId}`)).json();
