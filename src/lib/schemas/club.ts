@@ -1,6 +1,7 @@
 // Club forms and roles (create a club, invite by e-mail, change a member's role), shared by the
 // club pages and the server, where the parse result is the only one trusted.
 import { z } from 'zod';
+import { PG_INT_MAX } from './limits';
 
 export const CLUB_ROLES = ['member', 'organiser'] as const;
 export const clubRoleSchema = z.enum(CLUB_ROLES);
@@ -32,7 +33,7 @@ export const removeMemberSchema = z.object({ userId: z.string().min(1).max(100) 
 /** Archive filters, from the query string; every one optional. */
 export const archiveFilterSchema = z.object({
 	player: z.string().max(100).optional().catch(undefined),
-	event: z.coerce.number().int().positive().optional().catch(undefined),
+	event: z.coerce.number().int().positive().lte(PG_INT_MAX).optional().catch(undefined),
 	from: z.iso.date().optional().catch(undefined),
 	to: z.iso.date().optional().catch(undefined),
 	profile: z.string().max(100).optional().catch(undefined),

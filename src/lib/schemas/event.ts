@@ -1,6 +1,7 @@
 // Event forms (create an event, register, pair, swap, report and confirm results, refunds),
 // shared by the event pages and the server. Money is kept in cents; forms take "12.50".
 import { z } from 'zod';
+import { PG_INT_MAX } from './limits';
 
 export const EVENT_KINDS = ['one-day', 'league'] as const;
 export const eventKindSchema = z.enum(EVENT_KINDS);
@@ -32,9 +33,9 @@ const intField = (min: number, max: number, what: string) =>
 	z.coerce.number({ error: `Give ${what} as a whole number` }).int(`Give ${what} as a whole number`).min(min, `${what} is at least ${min}`).max(max, `${what} is at most ${max}`);
 
 const idList = z
-	.union([z.array(z.coerce.number().int().positive()), z.string()])
+	.union([z.array(z.coerce.number().int().positive().lte(PG_INT_MAX)), z.string()])
 	.transform((v) => (Array.isArray(v) ? v : v.split(',').map((s) => s.trim()).filter(Boolean).map(Number)))
-	.pipe(z.array(z.number().int().positive()).max(50));
+	.pipe(z.array(z.number().int().positive().lte(PG_INT_MAX)).max(50));
 
 export const createEventSchema = z
 	.object({
@@ -58,10 +59,10 @@ export const createEventSchema = z
 export type CreateEvent = z.output<typeof createEventSchema>;
 
 export const registerSchema = z.object({
-	rosterId: z.coerce.number({ error: 'Choose one of your rosters' }).int().positive('Choose one of your rosters')
+	rosterId: z.coerce.number({ error: 'Choose one of your rosters' }).int().positive('Choose one of your rosters').lte(PG_INT_MAX)
 });
 
-export const entryIdSchema = z.object({ entryId: z.coerce.number().int().positive() });
+export const entryIdSchema = z.object({ entryId: z.coerce.number().int().positive().lte(PG_INT_MAX) });
 
 export const swapSchema = z
 	.object({ first: z.string().min(1).max(100), second: z.string().min(1).max(100) })
@@ -69,14 +70,14 @@ export const swapSchema = z
 
 export const OUTCOMES = ['a', 'b', 'draw'] as const;
 export const resultSchema = z.object({
-	pairingId: z.coerce.number().int().positive(),
+	pairingId: z.coerce.number().int().positive().lte(PG_INT_MAX),
 	outcome: z.enum(OUTCOMES, { error: 'Choose who won, or a draw' }),
 	valueA: intField(0, 1000, 'the objective value'),
 	valueB: intField(0, 1000, 'the objective value')
 });
 export type ResultInput = z.output<typeof resultSchema>;
 
-export const pairingIdSchema = z.object({ pairingId: z.coerce.number().int().positive() });
+export const pairingIdSchema = z.object({ pairingId: z.coerce.number().int().positive().lte(PG_INT_MAX) });
 
 /** "12.50 EUR" from cents, for every place a fee is shown. */
 export function formatMoney(cents: number, currency: string): string {

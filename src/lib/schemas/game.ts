@@ -1,6 +1,7 @@
 // Games at the table: the pieces on it, the state kept in the game row, the move log's entries
 // and the bodies of the game API (/api/v1/games/**), shared by the play screen and the server.
 import { z } from 'zod';
+import { PG_INT_MAX } from './limits';
 import { checkReportSchema, footprintSchema, moveKindSchema, pieceClassSchema, poseSchema, profileSchema, waypointSchema, LIMITS } from './check';
 import { layoutSchema, sideSchema, type Side } from './layout';
 
@@ -34,23 +35,23 @@ export type Phase = z.output<typeof phaseSchema>;
 
 /** The move awaiting the opponent's acceptance, with what is needed to take it back. */
 export const pendingMoveSchema = z.object({
-	seq: z.int(),
+	seq: z.int().lte(PG_INT_MAX),
 	unit: z.string(),
 	kind: moveKindSchema,
 	side: sideSchema,
 	actor: z.string(),
 	/** where the unit's pieces stood before it */
 	before: z.record(z.string(), poseSchema),
-	die: z.int().min(1).max(6).optional(),
+	die: z.int().lte(PG_INT_MAX).min(1).max(6).optional(),
 	/** the log entry of a dash's roll: a take-back hands the same die back */
-	rollSeq: z.int().optional()
+	rollSeq: z.int().lte(PG_INT_MAX).optional()
 });
 export type PendingMove = z.output<typeof pendingMoveSchema>;
 
 export const gameStateSchema = z.object({
 	phase: phaseSchema,
 	/** 0 during setup and deployment, then 1, 2, … */
-	round: z.int().min(0),
+	round: z.int().lte(PG_INT_MAX).min(0),
 	/** the side whose turn it is (deploying, then moving) */
 	activeSide: sideSchema,
 	/** which side moves first in every round */
@@ -60,7 +61,7 @@ export const gameStateSchema = z.object({
 	movedUnits: z.array(z.string()),
 	pending: pendingMoveSchema.nullable(),
 	/** a dash die rolled and not yet spent on its move */
-	die: z.object({ unit: z.string(), value: z.int().min(1).max(6), seq: z.int() }).nullable(),
+	die: z.object({ unit: z.string(), value: z.int().lte(PG_INT_MAX).min(1).max(6), seq: z.int().lte(PG_INT_MAX) }).nullable(),
 	/** the last move's summaries (objectives held, support rings) for the panel */
 	summaries: checkReportSchema.shape.summaries.nullable()
 });
@@ -126,7 +127,7 @@ export const createGameSchema = z
 	.object({
 		title: z.string().trim().min(1, 'give the game a name').max(100),
 		/** a saved layout to snapshot… */
-		layoutId: z.int().positive().optional(),
+		layoutId: z.int().lte(PG_INT_MAX).positive().optional(),
 		/** …or a whole layout document */
 		layout: layoutSchema.optional(),
 		profile: profileSchema.prefault({}),
@@ -136,17 +137,17 @@ export const createGameSchema = z
 			z.object({ mode: z.literal('shared') })
 		]),
 		/** rosters may be chosen now or later, each by the player of that side */
-		rosterA: z.int().positive().optional(),
-		rosterB: z.int().positive().optional(),
+		rosterA: z.int().lte(PG_INT_MAX).positive().optional(),
+		rosterB: z.int().lte(PG_INT_MAX).positive().optional(),
 		firstSide: sideSchema.default('a')
 	})
 	.strict();
 export type CreateGame = z.output<typeof createGameSchema>;
 
 /** Every change names the last seq its sender saw; a stale one is answered 409. */
-const seq = z.int().min(0);
+const seq = z.int().lte(PG_INT_MAX).min(0);
 
-export const chooseRosterSchema = z.object({ seq, side: sideSchema, rosterId: z.int().positive() }).strict();
+export const chooseRosterSchema = z.object({ seq, side: sideSchema, rosterId: z.int().lte(PG_INT_MAX).positive() }).strict();
 
 export const deploySchema = z
 	.object({
@@ -179,4 +180,4 @@ export const rulingRequestSchema = z
 
 export const joinSchema = z.object({ token: z.string().min(1).max(200) }).strict();
 
-export const gameIdSchema = z.coerce.number().int().positive();
+export const gameIdSchema = z.coerce.number().int().positive().lte(PG_INT_MAX);

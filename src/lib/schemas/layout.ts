@@ -2,6 +2,7 @@
 // terrain and objectives are exactly the engine's shapes (schemas/check.ts), plus names and
 // deployment zones, which the engine does not need. `layoutToBoard` hands the engine its part.
 import { z } from 'zod';
+import { PG_INT_MAX } from './limits';
 import { LIMITS, objectiveSchema, terrainSchema, type TerrainIn } from './check';
 
 export const LAYOUT_SCHEMA_VERSION = 1 as const;
@@ -147,7 +148,7 @@ export function layoutToBoard(layout: Layout): {
 // ---------------------------------------------------------------------------------------------
 // The JSON API (/api/v1/layouts)
 
-export const layoutIdSchema = z.coerce.number().int().positive();
+export const layoutIdSchema = z.coerce.number().int().positive().lte(PG_INT_MAX);
 
 /**
  * POST: a new layout, either a whole document ({ doc }) or a copy of a saved one
@@ -157,7 +158,7 @@ export const layoutIdSchema = z.coerce.number().int().positive();
 export const createLayoutSchema = z
 	.object({
 		doc: layoutSchema.optional(),
-		copyOf: z.number().int().positive().optional(),
+		copyOf: z.number().int().positive().lte(PG_INT_MAX).optional(),
 		name: nameSchema.optional()
 	})
 	.strict()
@@ -172,7 +173,7 @@ export const createLayoutSchema = z
 
 /** PUT: the new document and the version it was edited from; a stale version gets 409. */
 export const updateLayoutSchema = z
-	.object({ doc: layoutSchema, version: z.number().int().positive() })
+	.object({ doc: layoutSchema, version: z.number().int().positive().lte(PG_INT_MAX) })
 	.strict();
 
 export interface LayoutSummary {

@@ -108,7 +108,9 @@ export const profileSchema = z.object({
 		error: (iss) =>
 			iss.input === undefined
 				? 'The class is missing'
-				: `The class "${String(iss.input)}" is not one of ${PIECE_CLASSES.join(', ')}`
+				: typeof iss.input === 'string'
+					? `The class "${iss.input.slice(0, 40)}" is not one of ${PIECE_CLASSES.join(', ')}`
+					: `The class must be one of ${PIECE_CLASSES.join(', ')}` // never String() an arbitrary object: it may not convert
 	}),
 	flies: z.boolean({ error: 'Flier must be yes or no' }).default(false),
 	allowanceIn: z

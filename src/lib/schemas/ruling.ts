@@ -1,6 +1,7 @@
 // The judge desk's boundaries: opening a ruling request, a judge's ruling, what a ruling log
 // entry holds, and what the API shows of a request. Shared by the desk, the replay and the server.
 import { z } from 'zod';
+import { PG_INT_MAX } from './limits';
 import { checkReportSchema, poseSchema } from './check';
 import type { MoveLogEntry, MoveLogKind } from './game';
 
@@ -16,13 +17,13 @@ export type RulingOutcome = z.output<typeof rulingOutcomeSchema>;
 /** Photos per request: enough for the table from two sides and a close-up or two. */
 export const MAX_PHOTOS = 4;
 
-const seq = z.int().min(1);
+const seq = z.int().lte(PG_INT_MAX).min(1);
 
 export const openRequestSchema = z
 	.object({
-		gameId: z.int().positive(),
+		gameId: z.int().lte(PG_INT_MAX).positive(),
 		/** the seq of the game the asker saw (a stale one is answered 409, like every table change) */
-		seq: z.int().min(0),
+		seq: z.int().lte(PG_INT_MAX).min(0),
 		/** the log entry in question */
 		moveSeq: seq,
 		note: z.string().trim().min(1, 'say what the judge should look at').max(2000),
@@ -52,12 +53,12 @@ export const rulingSchema = z
 	});
 export type RulingInput = z.output<typeof rulingSchema>;
 
-export const reportLinkSchema = z.object({ round: z.int().min(0).max(10_000) }).strict();
+export const reportLinkSchema = z.object({ round: z.int().lte(PG_INT_MAX).min(0).max(10_000) }).strict();
 
 /** The payload of a 'ruling' log entry. Positions are absolute poses the ruling puts pieces at. */
 export const rulingPayloadSchema = z.object({
-	requestId: z.int(),
-	moveSeq: z.int(),
+	requestId: z.int().lte(PG_INT_MAX),
+	moveSeq: z.int().lte(PG_INT_MAX),
 	outcome: rulingOutcomeSchema,
 	reason: z.string(),
 	allowIllegal: z.boolean(),

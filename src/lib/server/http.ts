@@ -42,9 +42,13 @@ export async function parseJson<S extends z.ZodType>(
 		}
 		return { ok: false, response: jsonError(400, 'The request body is not valid JSON') };
 	}
-	if (hasNulCharacter(raw)) {
-		// PostgreSQL text cannot hold U+0000: refuse it here rather than fail in the database.
-		return { ok: false, response: jsonError(400, 'The request body contains a NUL character (\\u0000), which no field accepts') };
+	if (hasUnstorableText(raw)) {
+		// PostgreSQL text and jsonb cannot hold U+0000 or a lone surrogate: refuse them here
+		// rather than fail in the database.
+		return {
+			ok: false,
+			response: jsonError(400, 'The request body contains a NUL character (\\u0000) or a lone surrogate, which no field accepts')
+		};
 	}
 	const parsed = schema.safeParse(raw);
 	if (!parsed.success) {
@@ -70,18 +74,23 @@ export async function formFields(request: Request): Promise<Record<string, strin
 	}
 }
 
-/** Whether any string (or key) in a parsed JSON value contains U+0000. Iterative: deep nesting cannot overflow the stack. */
-export function hasNulCharacter(value: unknown): boolean {
+/** Whether a string cannot be stored as PostgreSQL text: it holds U+0000 or is not well-formed UTF-16. */
+function unstorable(s: string): boolean {
+	return s.includes('\u0000') || !s.isWellFormed();
+}
+
+/** Whether any string (or key) in a parsed JSON value cannot be stored. Iterative: deep nesting cannot overflow the stack. */
+export function hasUnstorableText(value: unknown): boolean {
 	const stack: unknown[] = [value];
 	while (stack.length > 0) {
 		const v = stack.pop();
 		if (typeof v === 'string') {
-			if (v.includes('\u0000')) return true;
+			if (unstorable(v)) return true;
 		} else if (Array.isArray(v)) {
 			for (const x of v) stack.push(x);
 		} else if (v !== null && typeof v === 'object') {
 			for (const [k, x] of Object.entries(v)) {
-				if (k.includes('\u0000')) return true;
+				if (unstorable(k)) return true;
 				stack.push(x);
 			}
 		}

@@ -1,7 +1,7 @@
 // parseJson: the one door of every JSON API route — bad JSON 400, too large 413, NUL 400.
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import { hasNulCharacter, parseJson } from '../../../src/lib/server/http';
+import { hasUnstorableText, parseJson } from '../../../src/lib/server/http';
 
 const schema = z.object({ name: z.string() });
 const post = (body: string) => new Request('http://localhost/x', { method: 'POST', headers: { 'content-type': 'application/json' }, body });
@@ -30,15 +30,19 @@ describe('parseJson', () => {
 	});
 });
 
-describe('hasNulCharacter', () => {
+describe('hasUnstorableText', () => {
 	it('finds U+0000 in nested values and in keys, and nowhere else', () => {
-		expect(hasNulCharacter({ a: [1, { b: 'x\u0000' }] })).toBe(true);
-		expect(hasNulCharacter({ ['k\u0000']: 1 })).toBe(true);
-		expect(hasNulCharacter({ a: [1, { b: 'x\\u0000 as text' }], c: null })).toBe(false);
+		expect(hasUnstorableText({ a: [1, { b: 'x\u0000' }] })).toBe(true);
+		expect(hasUnstorableText({ ['k\u0000']: 1 })).toBe(true);
+		expect(hasUnstorableText({ a: [1, { b: 'x\\u0000 as text' }], c: null })).toBe(false);
+	});
+	it('finds a lone surrogate, which PostgreSQL jsonb refuses, and passes a paired one', () => {
+		expect(hasUnstorableText({ id: 'a\ud800b' })).toBe(true);
+		expect(hasUnstorableText({ id: 'moth \ud83e\udd8b' })).toBe(false);
 	});
 	it('walks very deep nesting without overflowing the stack', () => {
 		let deep: unknown = 'end\u0000';
 		for (let i = 0; i < 100_000; i++) deep = [deep];
-		expect(hasNulCharacter(deep)).toBe(true);
+		expect(hasUnstorableText(deep)).toBe(true);
 	});
 });

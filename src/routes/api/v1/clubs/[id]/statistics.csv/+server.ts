@@ -5,11 +5,12 @@ import { clubs } from '$lib/server/db/clubs';
 import { results } from '$lib/server/db/results';
 import { forbidden, jsonError, unauthorized } from '$lib/server/http';
 import type { RequestHandler } from './$types';
+import { PG_INT_MAX } from '$lib/schemas/limits';
 
 export const GET: RequestHandler = async ({ locals, params, url }) => {
 	if (!locals.user) return unauthorized();
 	const id = Number(params.id);
-	if (!Number.isInteger(id) || id <= 0) return jsonError(404, 'No such club');
+	if (!Number.isInteger(id) || id <= 0 || id > PG_INT_MAX) return jsonError(404, 'No such club');
 	const club = await clubs.find(id);
 	if (!club) return jsonError(404, 'No such club');
 	if (!(await clubs.roleOf(id, locals.user.id))) return forbidden();
