@@ -110,8 +110,15 @@ interface Route {
 	stateful: number[];
 }
 
+/**
+ * Anonymous fuzz comes from an address of its own (TEST-NET-3, RFC 5737): its failed sign-ins
+ * may use up that address's sign-in budget, never the loopback one the browser tests sign in from.
+ */
+const ANONYMOUS_ADDRESS = '203.0.113.77';
+
 async function send(c: Client | null, method: string, path: string, body: string | Uint8Array, headers: Record<string, string> = {}): Promise<{ status: number; text: string; type: string }> {
-	const h = { 'content-type': 'application/json', accept: 'application/json', origin: BASE, ...headers };
+	const h: Record<string, string> = { 'content-type': 'application/json', accept: 'application/json', origin: BASE, ...headers };
+	if (!c) h['x-forwarded-for'] ??= ANONYMOUS_ADDRESS;
 	try {
 		const res = c ? await c.send(method, path, body as string, h) : await fetch(BASE + path, { method, headers: h, body: body as BodyInit, redirect: 'manual' });
 		return { status: res.status, text: await res.text(), type: res.headers.get('content-type') ?? '' };
@@ -130,6 +137,7 @@ async function send(c: Client | null, method: string, path: string, body: string
 async function sendLarge(c: Client | null, method: string, path: string, body: string | Uint8Array, headers: Record<string, string> = {}): Promise<{ status: number; text: string; type: string }> {
 	const bytes = typeof body === 'string' ? Buffer.from(body) : Buffer.from(body);
 	const h: Record<string, string> = { 'content-type': 'application/json', accept: 'application/json', origin: BASE, 'content-length': String(bytes.length), ...headers };
+	if (!c) h['x-forwarded-for'] ??= ANONYMOUS_ADDRESS;
 	if (c) {
 		h['x-forwarded-for'] = c.address;
 		if (c.cookies.size) h.cookie = [...c.cookies].map(([k, v]) => `${k}=${encodeURIComponent(v)}`).join('; ');
