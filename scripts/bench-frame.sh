@@ -27,7 +27,7 @@ trap cleanup EXIT
 trap 'exit 130' INT TERM
 
 ensure_deps
-[ -x "$CHROMIUM_PATH" ] || apt_install chromium
+[ -x "$CHROMIUM_PATH" ] || apt_install chromium fonts-liberation
 for port in "$PORT" "$SMTP_PORT"; do
 	if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then
 		die "port $port is in use: another run holds slot $SLOT (set TEST_SLOT=0-9)"

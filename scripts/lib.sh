@@ -27,9 +27,17 @@ apt_install() {
 	command -v apt-get >/dev/null || die "apt-get is missing: install $* by hand"
 	local sudo=""
 	[ "$(id -u)" = 0 ] || sudo="sudo"
-	log "installing $* from Debian's packages"
-	$sudo env DEBIAN_FRONTEND=noninteractive apt-get update -qq
-	$sudo env DEBIAN_FRONTEND=noninteractive apt-get install -y -qq "$@" >/dev/null
+	log "installing $* from Debian's packages (log: .data/apt.log)"
+	mkdir -p "$DATA"
+	# No recommended extras (chromium's would bring daemons such as avahi), and every stream of
+	# apt and of anything its install scripts start goes to a log file: a service started by a
+	# package must never hold this command's output open after it ends.
+	if ! { $sudo env DEBIAN_FRONTEND=noninteractive apt-get update -qq \
+		&& $sudo env DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends "$@"; \
+		} </dev/null >>"$DATA/apt.log" 2>&1; then
+		tail -20 "$DATA/apt.log" >&2
+		die "could not install $* (see .data/apt.log)"
+	fi
 }
 
 ensure_deps() {
@@ -148,15 +156,33 @@ cleanup() {
 	local pid
 	# Finish the cleanup even when Ctrl-C also closed the terminal pipe we print to.
 	trap '' PIPE INT TERM
+	local i alive
 	for pid in "${STARTED_PIDS[@]:-}"; do
 		[ -n "$pid" ] && kill "$pid" 2>/dev/null || true
 	done
+	# A bounded wait: whatever has not ended 20 s after SIGTERM gets SIGKILL, so that the
+	# command always ends.
+	for i in $(seq 1 200); do
+		alive=0
+		for pid in "${STARTED_PIDS[@]:-}"; do
+			[ -n "$pid" ] && kill -0 "$pid" 2>/dev/null && alive=1
+		done
+		[ "$alive" = 0 ] && break
+		sleep 0.1
+	done
 	for pid in "${STARTED_PIDS[@]:-}"; do
-		[ -n "$pid" ] && wait "$pid" 2>/dev/null || true
+		[ -n "$pid" ] || continue
+		if kill -0 "$pid" 2>/dev/null; then
+			log "pid $pid did not stop on SIGTERM: SIGKILL" 2>/dev/null || true
+			pkill -KILL -P "$pid" 2>/dev/null || true
+			kill -KILL "$pid" 2>/dev/null || true
+		fi
+		wait "$pid" 2>/dev/null || true
 	done
 	if [ "$STARTED_PG" = 1 ]; then
 		log "stopping PostgreSQL" 2>/dev/null || true
-		as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" -m fast -w stop >/dev/null 2>&1 || true
+		as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" -m fast -w -t 30 stop >/dev/null 2>&1 \
+			|| as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" -m immediate -w -t 30 stop >/dev/null 2>&1 || true
 	fi
 }
 

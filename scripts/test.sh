@@ -23,12 +23,14 @@ export FAKE_S3_DIR="$DATA/s3-test$SUFFIX" PW_OUTPUT_DIR="test-results/e2e$SUFFIX
 # The test server trusts x-forwarded-for so tests can act as distinct client addresses.
 export ADDRESS_HEADER=x-forwarded-for XFF_DEPTH=1
 export CHROMIUM_PATH="${CHROMIUM_PATH:-/usr/bin/chromium}"
+# adapter-node: on SIGTERM, close open connections after 5 s rather than 30 s.
+export SHUTDOWN_TIMEOUT="${SHUTDOWN_TIMEOUT:-5}"
 
 trap cleanup EXIT
 trap 'exit 130' INT TERM
 
 ensure_deps
-[ -x "$CHROMIUM_PATH" ] || apt_install chromium
+[ -x "$CHROMIUM_PATH" ] || apt_install chromium fonts-liberation
 export STRIPE_API_BASE="http://127.0.0.1:$((12111 + SLOT))" APP_WEBHOOK_URL="$ORIGIN/api/v1/payments/webhook"
 # Another run on the same slot owns these ports and this slot's database: refuse before
 # touching anything of it.
