@@ -11,6 +11,7 @@ export PGPORT="${PGPORT:-54329}"
 DATA="$ROOT/.data"
 STARTED_PIDS=()
 STARTED_PG=0
+PG_SIGNED_IN=0
 # Where the cluster lives: .data/ unless the postgres user cannot reach the checkout.
 PGHOME="$DATA"
 
@@ -96,11 +97,33 @@ pg_up() {
 		log "starting PostgreSQL on 127.0.0.1:$PGPORT"
 		touch "$PGHOME/pg.log"
 		if [ "$(id -u)" = 0 ]; then chown postgres:postgres "$PGHOME/pg.log"; fi
-		as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" -l "$PGHOME/pg.log" -w -t 60 \
-			-o "-c listen_addresses=127.0.0.1 -p $PGPORT -k $PGHOME/run" start >/dev/null \
-			|| { tail -20 "$PGHOME/pg.log"; die "PostgreSQL did not start"; }
-		STARTED_PG=1
+		if as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" -l "$PGHOME/pg.log" -w -t 60 \
+			-o "-c listen_addresses=127.0.0.1 -p $PGPORT -k $PGHOME/run" start >/dev/null; then
+			STARTED_PG=1
+		elif as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" status >/dev/null 2>&1; then
+			# Another run of this checkout started it at the same moment: use theirs.
+			log "PostgreSQL was started by another run at the same moment: using it"
+		else
+			tail -20 "$PGHOME/pg.log"; die "PostgreSQL did not start"
+		fi
 	fi
+	# Several runs of one checkout (npm start beside npm test, say) share this cluster: each
+	# signs in under users/, and the last one out stops it if one of them started it.
+	[ "$STARTED_PG" = 1 ] && touch "$PGHOME/run/started-by-inchwarden"
+	mkdir -p "$PGHOME/users"
+	echo "$$" >"$PGHOME/users/$$"
+	PG_SIGNED_IN=1
+}
+
+pg_other_users() {
+	local f pid n=0
+	for f in "$PGHOME"/users/*; do
+		[ -e "$f" ] || continue
+		pid="$(basename "$f")"
+		if [ "$pid" = "$$" ]; then continue; fi
+		if kill -0 "$pid" 2>/dev/null; then n=$((n + 1)); else rm -f "$f"; fi
+	done
+	[ "$n" -gt 0 ]
 }
 
 ensure_database() {
@@ -179,10 +202,16 @@ cleanup() {
 		fi
 		wait "$pid" 2>/dev/null || true
 	done
-	if [ "$STARTED_PG" = 1 ]; then
-		log "stopping PostgreSQL" 2>/dev/null || true
-		as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" -m fast -w -t 30 stop >/dev/null 2>&1 \
-			|| as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" -m immediate -w -t 30 stop >/dev/null 2>&1 || true
+	if [ "$PG_SIGNED_IN" = 1 ]; then
+		rm -f "$PGHOME/users/$$"
+		if pg_other_users; then
+			log "leaving PostgreSQL running: other runs of this checkout use it" 2>/dev/null || true
+		elif [ -f "$PGHOME/run/started-by-inchwarden" ]; then
+			log "stopping PostgreSQL" 2>/dev/null || true
+			as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" -m fast -w -t 30 stop >/dev/null 2>&1 \
+				|| as_pg "$PGBIN/pg_ctl" -D "$PGHOME/pg" -m immediate -w -t 30 stop >/dev/null 2>&1 || true
+			rm -f "$PGHOME/run/started-by-inchwarden"
+		fi
 	fi
 }
 
