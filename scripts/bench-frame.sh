@@ -21,7 +21,7 @@ export S3_ENDPOINT="http://127.0.0.1:$((4570 + SLOT))" S3_BUCKET=inchwarden-benc
 export S3_FORCE_PATH_STYLE=true S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER
 export FAKE_S3_DIR="$DATA/s3-bench"
 export CHROMIUM_PATH="${CHROMIUM_PATH:-/usr/bin/chromium}"
-export STRIPE_API_BASE="http://127.0.0.1:$((12111 + SLOT))" APP_WEBHOOK_URL="$ORIGIN/api/v1/payments/webhook"
+export STRIPE_API_BASE="http://127.0.0.1:$((12120 + SLOT))" APP_WEBHOOK_URL="$ORIGIN/api/v1/payments/webhook"
 
 trap cleanup EXIT
 trap 'exit 130' INT TERM

@@ -31,7 +31,7 @@ trap 'exit 130' INT TERM
 
 ensure_deps
 [ -x "$CHROMIUM_PATH" ] || apt_install chromium fonts-liberation
-export STRIPE_API_BASE="http://127.0.0.1:$((12111 + SLOT))" APP_WEBHOOK_URL="$ORIGIN/api/v1/payments/webhook"
+export STRIPE_API_BASE="http://127.0.0.1:$((12120 + SLOT))" APP_WEBHOOK_URL="$ORIGIN/api/v1/payments/webhook"
 # Another run on the same slot owns these ports and this slot's database: refuse before
 # touching anything of it.
 for port in "$PORT" "$SMTP_PORT"; do

@@ -89,9 +89,9 @@ export async function act(
 	okStatus = 200
 ): Promise<Answer> {
 	return db.transaction(async (trx) => {
-		const game = await games.lock(gameId, trx);
-		if (!game) return err(404, 'No such game');
-		const players = await gamePlayers.forGame(gameId, trx);
+		const locked = await games.lockWithPlayers(gameId, trx);
+		if (!locked) return err(404, 'No such game');
+		const { game, players } = locked;
 		const actorSides = players.filter((p) => p.userId === user.id).map((p) => p.side);
 		if (actorSides.length === 0) return err(403, 'Only the players of this game may act in it');
 		if (expectedSeq !== game.seq) {
@@ -103,15 +103,18 @@ export async function act(
 		const result = await step(ctx, trx);
 		if (!result.ok && !('entries' in result)) return err(result.status, result.message, { issues: result.issues });
 
-		let seq = game.seq;
-		for (const e of result.entries) {
-			seq += 1;
-			await moves.append(
-				{ gameId, seq, kind: e.kind, actor: user.id, side: e.side, round: result.state.round, payload: e.payload, report: e.report ?? null },
-				trx
-			);
-		}
-		await games.saveState(gameId, result.state, seq, trx);
+		const entries = result.entries.map((e, i) => ({
+			gameId,
+			seq: game.seq + 1 + i,
+			kind: e.kind,
+			actor: user.id,
+			side: e.side,
+			round: result.state.round,
+			payload: e.payload,
+			report: e.report ?? null
+		}));
+		const seq = game.seq + entries.length;
+		await moves.record(gameId, entries, result.state, seq, trx);
 		const view = toView({ ...game, state: result.state, seq }, players, user.id);
 		if (!result.ok) {
 			// Refused by the referee: the refusal is on the record, the pieces stay where they were.

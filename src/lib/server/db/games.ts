@@ -5,6 +5,7 @@ import type { Layout } from '$lib/schemas/layout';
 import type { Profile } from '$lib/schemas/check';
 import type { GameState, Side } from '$lib/schemas/game';
 import { db, use, type Db } from './index';
+import type { GamePlayerRow } from './game-players';
 
 export interface GameRow {
 	id: number;
@@ -60,6 +61,37 @@ export async function lock(id: number, trx: Db): Promise<GameRow | null> {
 	return (row as GameRow | undefined) ?? null;
 }
 
+/** The row locked, and the game's players, in one round trip (the hot path of every change). */
+export async function lockWithPlayers(id: number, trx: Db): Promise<{ game: GameRow; players: GamePlayerRow[] } | null> {
+	const { rows } = await trx.raw(
+		`with g as (select * from games where id = ? for update)
+		select g.id, g.title, g.created_by, g.layout_id, g.layout, g.profile, g.state, g.seq, g.created_at, g.updated_at,
+			coalesce((
+				select json_agg(json_build_object('side', p.side, 'userId', p.user_id, 'displayName', u.display_name, 'rosterId', p.roster_id, 'rosterName', r.name) order by p.side)
+				from game_players p left join users u on u.id = p.user_id left join rosters r on r.id = p.roster_id
+				where p.game_id = g.id
+			), '[]'::json) as players
+		from g`,
+		[id]
+	);
+	const r = rows[0];
+	if (!r) return null;
+	const game: GameRow = {
+		id: r.id,
+		title: r.title,
+		createdBy: r.created_by,
+		layoutId: r.layout_id,
+		layout: r.layout,
+		profile: r.profile,
+		state: r.state,
+		seq: r.seq,
+		createdAt: r.created_at,
+		updatedAt: r.updated_at
+	};
+	const players = (r.players as Omit<GamePlayerRow, 'gameId'>[]).map((p) => ({ gameId: id, ...p }));
+	return { game, players };
+}
+
 /** Only ever called by `act` with the row locked and the log entries appended in the same transaction. */
 export async function saveState(id: number, state: GameState, seq: number, trx: Db): Promise<void> {
 	await trx('games').where({ id }).update({ state: JSON.stringify(state), seq, updated_at: db.fn.now() });
@@ -112,4 +144,4 @@ export async function listForUser(userId: string, trx?: Db): Promise<GameListIte
 	}));
 }
 
-export const games = { add, find, lock, saveState, listForUser };
+export const games = { add, find, lock, lockWithPlayers, saveState, listForUser };
