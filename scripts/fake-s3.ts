@@ -19,6 +19,8 @@ await server.run();
 console.log(`fake S3 on ${endpoint.origin}, bucket ${bucket}, files in ${directory}`);
 
 async function stop() {
+	// Kept-alive connections from the app can hold close() open: exit after a second anyway.
+	setTimeout(() => process.exit(0), 1000).unref();
 	await server.close();
 	process.exit(0);
 }
