@@ -5,7 +5,7 @@
 // p50 / p95 / max and whether p95 ≤ 16.7 ms (the issue's target). Needs the app running: the
 // npm script brings one up (scripts/bench-frame.sh) and sets BENCH_BASE_URL.
 import { existsSync, readFileSync } from 'node:fs';
-import type { Page } from '@playwright/test';
+import type { CDPSession, Page } from '@playwright/test';
 import { toPx } from '../../src/lib/board/view';
 import { baseUrl, launch, pct, setUpBenchGame, signIn, tablet } from './frame-browser';
 
@@ -74,6 +74,141 @@ async function dragOnce(page: Page): Promise<{ gaps: number[]; longFrames: numbe
 	await page.mouse.up();
 	const gaps = stamps.slice(1).map((t, i) => t - stamps[i]);
 	return { gaps, longFrames: long, readout };
+}
+
+// --- the DevTools trace of one drag -------------------------------------------------------------
+
+interface TraceEvent {
+	pid: number;
+	tid: number;
+	ts: number;
+	dur?: number;
+	ph: string;
+	name: string;
+	cat: string;
+	args?: { name?: string };
+}
+
+/**
+ * The DevTools timeline's categories plus Blink's and the compositor's own (canvas hand-over,
+ * layer updates); not V8's detailed ones, whose overhead would swamp the drag being measured.
+ */
+const TRACE_CATEGORIES = ['toplevel', 'devtools.timeline', 'disabled-by-default-v8.gc', 'v8.execute', 'blink', 'cc'];
+
+async function traceDrag(page: Page, cdp: CDPSession): Promise<TraceEvent[]> {
+	const events: TraceEvent[] = [];
+	const onData = (e: { value: Record<string, unknown>[] }) => events.push(...(e.value as unknown as TraceEvent[]));
+	cdp.on('Tracing.dataCollected', onData);
+	const complete = new Promise<void>((resolve) => cdp.once('Tracing.tracingComplete', () => resolve()));
+	await cdp.send('Tracing.start', {
+		transferMode: 'ReportEvents',
+		traceConfig: { recordMode: 'recordAsMuchAsPossible', includedCategories: TRACE_CATEGORIES }
+	});
+	await dragOnce(page);
+	await cdp.send('Tracing.end');
+	await complete;
+	cdp.off('Tracing.dataCollected', onData);
+	return events;
+}
+
+/** Each trace event name's kind, the way the DevTools performance panel groups them. */
+function kindOf(name: string): string {
+	if (/GC|Sweep|Marking|Scavenge|BlinkGC/i.test(name)) return 'garbage collection';
+	if (/^(UpdateLayoutTree|RecalculateStyles|ParseAuthorStyleSheet|StyleRecalc|Document::updateStyle|StyleEngine)/.test(name)) return 'style';
+	if (/^(Layout|UpdateLayout|LocalFrameView::layout|LayoutView|InvalidateLayout|ScheduleStyleInvalidationTracking)/.test(name)) return 'layout';
+	if (/HitTest/.test(name)) return 'hit test';
+	if (/^(Paint|PrePaint|PaintImage|UpdateLayer|UpdateLayerTree|Layerize|Commit|CompositeLayers|LocalFrameView::RunPaintLifecyclePhase|LocalFrameView::RunPrePaintLifecyclePhase|LocalFrameView::RunCompositingInputsLifecyclePhase|PaintController|PaintArtifactCompositor|cc::|LayerTreeHost|ProxyMain|Canvas|Draw|Raster|ImageDecode|Decode)/.test(name) || /Canvas|Paint|Raster/.test(name)) return 'paint, canvas, compositing';
+	if (/^(FunctionCall|EvaluateScript|V8\.|v8\.|TimerFire|FireAnimationFrame|EventDispatch|RunMicrotasks|FireIdleCallback|ProfileCall|CpuProfiler|V8Console|XHRReadyStateChange|EventTiming|ResourceReceivedData|ParseHTML|Document::)/.test(name)) return 'script';
+	return 'other (task overhead, input routing, messages)';
+}
+
+/** Self time (µs) of each complete event, its children's time taken out. */
+function selfTimes(events: TraceEvent[]): { ev: TraceEvent; self: number; depth: number }[] {
+	const out: { ev: TraceEvent; self: number; depth: number }[] = [];
+	const sorted = events.filter((e) => e.ph === 'X' && typeof e.dur === 'number').sort((a, b) => a.ts - b.ts || b.dur! - a.dur!);
+	const stack: { ev: TraceEvent; self: number; depth: number }[] = [];
+	for (const ev of sorted) {
+		while (stack.length && stack[stack.length - 1].ev.ts + stack[stack.length - 1].ev.dur! <= ev.ts) stack.pop();
+		const parent = stack[stack.length - 1];
+		const row = { ev, self: ev.dur!, depth: stack.length };
+		if (parent && ev.ts + ev.dur! <= parent.ev.ts + parent.ev.dur! + 1) parent.self -= ev.dur!;
+		out.push(row);
+		stack.push(row);
+	}
+	return out;
+}
+
+/** B/E pairs on one thread as complete events. */
+function pairUp(events: TraceEvent[]): TraceEvent[] {
+	const out: TraceEvent[] = [];
+	const open: TraceEvent[] = [];
+	for (const e of [...events].sort((a, b) => a.ts - b.ts)) {
+		if (e.ph === 'X') out.push(e);
+		else if (e.ph === 'B') open.push(e);
+		else if (e.ph === 'E') {
+			const b = open.pop();
+			if (b) out.push({ ...b, ph: 'X', dur: e.ts - b.ts });
+		}
+	}
+	return out;
+}
+
+function summariseTrace(events: TraceEvent[]): string {
+	const threadNames = new Map<string, string>();
+	for (const e of events) if (e.ph === 'M' && e.name === 'thread_name') threadNames.set(`${e.pid}:${e.tid}`, e.args?.name ?? '?');
+	const byThread = new Map<string, TraceEvent[]>();
+	for (const e of events) {
+		if (e.ph !== 'X' && e.ph !== 'B' && e.ph !== 'E') continue;
+		const k = `${e.pid}:${e.tid}`;
+		const list = byThread.get(k);
+		if (list) list.push(e);
+		else byThread.set(k, [e]);
+	}
+	// the page's main thread: the renderer main thread with the most events
+	let main = '';
+	for (const [k, list] of byThread) if (threadNames.get(k) === 'CrRendererMain' && (!main || list.length > byThread.get(main)!.length)) main = k;
+	if (!main) return 'trace: no renderer main thread found';
+	const rows = selfTimes(pairUp(byThread.get(main)!));
+	const tops = rows.filter((r) => r.depth === 0);
+	const span = tops.length ? tops[tops.length - 1].ev.ts + tops[tops.length - 1].ev.dur! - tops[0].ev.ts : 0;
+	const busy = tops.reduce((a, r) => a + r.ev.dur!, 0);
+	const byName = new Map<string, { us: number; n: number }>();
+	const byKind = new Map<string, number>();
+	for (const r of rows) {
+		const v = byName.get(r.ev.name) ?? { us: 0, n: 0 };
+		v.us += r.self;
+		v.n += 1;
+		byName.set(r.ev.name, v);
+		byKind.set(kindOf(r.ev.name), (byKind.get(kindOf(r.ev.name)) ?? 0) + r.self);
+	}
+	const ms = (us: number) => `${(us / 1000).toFixed(0).padStart(6)} ms`;
+	const share = (us: number) => `${((100 * us) / busy).toFixed(1).padStart(5)} %`;
+	const lines = [`trace of one more drag (not counted): main thread busy ${ms(busy).trim()} of ${ms(span).trim()}; self time by kind:`];
+	for (const [k, us] of [...byKind].sort((a, b) => b[1] - a[1])) lines.push(`  ${share(us)}  ${ms(us)}  ${k}`);
+	lines.push('  by trace event (top 16):');
+	for (const [name, v] of [...byName].sort((a, b) => b[1].us - a[1].us).slice(0, 16)) lines.push(`  ${share(v.us)}  ${ms(v.us)}  ${name} ×${v.n}`);
+	// what the longest tasks were made of (the long frames)
+	const longest = [...tops].sort((a, b) => b.ev.dur! - a.ev.dur!).slice(0, 5);
+	const taskHist = [16.7, 33.3, 50, 100].map((lim) => `${tops.filter((r) => r.ev.dur! / 1000 > lim).length} over ${lim} ms`);
+	lines.push(`  main-thread tasks: ${tops.length}; ${taskHist.join(', ')}; the five longest:`);
+	for (const t of longest) {
+		const end = t.ev.ts + t.ev.dur!;
+		const inner = new Map<string, number>();
+		for (const r of rows) if (r.ev.ts >= t.ev.ts && r.ev.ts < end && r !== t) inner.set(r.ev.name, (inner.get(r.ev.name) ?? 0) + r.self);
+		const parts = [...inner].sort((a, b) => b[1] - a[1]).slice(0, 5).map(([n, us]) => `${n} ${(us / 1000).toFixed(1)}`);
+		lines.push(`    ${(t.ev.dur! / 1000).toFixed(1)} ms at +${((t.ev.ts - tops[0].ev.ts) / 1000).toFixed(0)} ms: ${parts.join(', ')}`);
+	}
+	// the other threads of the page's process and the compositor: busy time, to see what competes
+	lines.push('  other threads, busy (top-level events):');
+	const others: [string, number][] = [];
+	for (const [k, list] of byThread) {
+		if (k === main) continue;
+		const top = selfTimes(pairUp(list)).filter((r) => r.depth === 0);
+		const us = top.reduce((a, r) => a + r.ev.dur!, 0);
+		if (us > 50_000) others.push([`${threadNames.get(k) ?? k} (pid ${k.split(':')[0]})`, us]);
+	}
+	for (const [name, us] of others.sort((a, b) => b[1] - a[1]).slice(0, 8)) lines.push(`  ${ms(us)}  ${name}`);
+	return lines.join('\n');
 }
 
 /** The build's client manifest (set by the wrapper), to name hashed chunks by their source. */
@@ -150,6 +285,11 @@ try {
 	for (const [where, us] of [...selfUs].sort((a, b) => b[1] - a[1]).slice(0, 8)) {
 		console.log(`  ${((100 * us) / total).toFixed(1).padStart(5)} %  ${(us / 1000).toFixed(0).padStart(6)} ms  ${where}${sourceOf(where)}`);
 	}
+
+	// What the sampling profiler cannot split — style, layout, paint, canvas work, garbage
+	// collection — a DevTools trace of one more drag can: self time by trace event on the page's
+	// main thread, by kind, and what the longest main-thread tasks were made of.
+	console.log(summariseTrace(await traceDrag(page, cdp)));
 } finally {
 	await browser.close();
 }

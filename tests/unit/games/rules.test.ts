@@ -2,7 +2,8 @@
 // one move per unit per turn, dash dice, acceptance, take-back, ruling requests and who may act.
 // Positions are an invented table (fixtures.ts); distances are hand-worked from them.
 import { describe, expect, it } from 'vitest';
-import { accept, chooseRoster, deploy, endTurn, initialState, propose, requestRuling, roll, takeBack, type Ctx, type StepResult } from '$lib/board/play/rules';
+import { accept, checkRequestFor, chooseRoster, deploy, endTurn, initialState, liveCheckTable, propose, requestRuling, roll, takeBack, type Ctx, type StepResult } from '$lib/board/play/rules';
+import { checkMove } from '$lib/referee';
 import type { GameState, Side } from '$lib/schemas/game';
 import { LAYOUT, PROFILE, UNITS_A, UNITS_B } from './fixtures';
 
@@ -170,5 +171,36 @@ describe('movement', () => {
 		expect(s).toMatchObject({ round: 2, activeSide: 'a' });
 		// a-u1 may move again in the new round
 		expect(propose(ctx(s), { seq, unit: 'a-u1', kind: 'hold' }).ok).toBe(true);
+	});
+});
+
+describe('the live check table', () => {
+	// a-u2-p1 (Beacon Crew) is a ring source 6 in from its edge; a-u1 stands 6–10 in from it.
+	const moves: { unit: string; kind: 'move'; paths: Record<string, { x: number; y: number }[]> }[] = [
+		{ unit: 'a-u1', kind: 'move' as const, paths: { 'a-u1-p1': [{ x: 10, y: 10 }], 'a-u1-p2': [{ x: 12, y: 10 }], 'a-u1-p3': [{ x: 14, y: 10 }] } },
+		{ unit: 'a-u1', kind: 'move' as const, paths: { 'a-u1-p1': [{ x: 2, y: 6 }] } },
+		{ unit: 'a-u1', kind: 'move' as const, paths: { 'a-u1-p3': [{ x: 14, y: 20 }] } },
+		{ unit: 'a-u2', kind: 'move' as const, paths: { 'a-u2-p1': [{ x: 30, y: 9 }] } }
+	];
+
+	it('gives the same findings, costs and verdict as the whole request, without the ring summary', () => {
+		const s = ready();
+		const table = liveCheckTable(LAYOUT, PROFILE, s.pieces);
+		expect(table.pieces.some((p) => p.ring)).toBe(false);
+		let sawRings = false;
+		for (const move of moves) {
+			const full = checkMove(checkRequestFor(LAYOUT, PROFILE, s.pieces, move));
+			const live = checkMove({ ...table, move });
+			expect(live.verdict).toBe(full.verdict);
+			expect(live.findings).toEqual(full.findings);
+			expect(live.pieces).toEqual(full.pieces);
+			expect(live.summaries.objectives).toEqual(full.summaries.objectives);
+			expect(live.summaries.rings).toEqual([]);
+			sawRings ||= full.summaries.rings.length > 0;
+		}
+		// the whole request does carry the ring, so the comparison above is not empty-handed
+		expect(sawRings).toBe(true);
+		// and at least one move of the list is illegal (the third: 14 in for a 6 in allowance)
+		expect(moves.map((m) => checkMove({ ...table, move: m }).verdict)).toContain('illegal');
 	});
 });

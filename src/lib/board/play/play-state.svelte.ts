@@ -6,7 +6,7 @@ import type { CheckReport, Finding, MoveKind, Waypoint } from '../../schemas/che
 import { otherSide, type GamePiece, type GameView, type MoveLogEntry, type Pose, type Side } from '../../schemas/game';
 import type { BoardPiece, Overlay, BoardPointer } from '../types';
 import type { PointIn } from '../view';
-import { checkRequestFor } from './rules';
+import { liveCheckTable } from './rules';
 import type { TracePoint } from './simplify';
 import { unitsOf, type UnitSummary } from './pieces';
 import { gameApi, type ChangeAnswer } from './api';
@@ -124,20 +124,24 @@ export class PlayState {
 		return out;
 	});
 
+	/** The live check's table (rules.ts: no support rings), built once per game update, not per drag frame. */
+	private liveTable = $derived(liveCheckTable(this.game.layout, this.game.profile, this.state.pieces));
+
 	/** The browser's check of the draft move, recomputed on every drag frame (advice only). */
 	liveReport = $derived.by<CheckReport | null>(() => {
 		const unit = this.selectedUnit;
 		if (!unit || this.state.phase !== 'move' || !this.isMyTurn) return null;
 		if (this.kind === 'dash' && this.dieForSelected === null) return null;
 		try {
-			return checkMove(
-				checkRequestFor(this.game.layout, this.game.profile, this.state.pieces, {
+			return checkMove({
+				...this.liveTable,
+				move: {
 					unit,
 					kind: this.kind,
 					die: this.kind === 'dash' ? (this.dieForSelected ?? undefined) : undefined,
 					paths: this.kind === 'hold' ? undefined : this.paths
-				})
-			);
+				}
+			});
 		} catch {
 			return null;
 		}
@@ -181,22 +185,47 @@ export class PlayState {
 		return { x: end.x, y: end.y, facing };
 	}
 
+	/**
+	 * The board pieces of the last update by id, frozen: a piece that looks and stands the same is
+	 * handed to the canvas as the same object, which it then skips (300 pieces, one of them dragged).
+	 */
+	private lastPieces = new Map<string, BoardPiece>();
+
+	private stablePiece(next: BoardPiece, seen: Map<string, BoardPiece>): BoardPiece {
+		const prev = this.lastPieces.get(next.id);
+		const same =
+			prev &&
+			prev.side === next.side &&
+			prev.footprint === next.footprint &&
+			prev.label === next.label &&
+			prev.faded === next.faded &&
+			prev.flagged === next.flagged &&
+			prev.at.x === next.at.x &&
+			prev.at.y === next.at.y &&
+			prev.at.facing === next.at.facing;
+		const out = same ? prev : Object.freeze({ ...next, at: Object.freeze({ ...next.at }) });
+		seen.set(out.id, out);
+		return out;
+	}
+
 	/** Pieces drawn on the board: draft positions, ghosts of where dragged pieces started, deploy previews. */
 	boardPieces = $derived.by<BoardPiece[]>(() => {
 		const flagged = new Set(this.findings.filter((f) => f.severity !== 'warning').map((f) => f.pieces[0]));
 		const out: BoardPiece[] = [];
+		const seen = new Map<string, BoardPiece>();
 		const unitNo = (unit: string) => unit.split('-u')[1] ?? '';
 		const pendingBefore = this.pending?.before ?? {};
 		for (const p of this.state.pieces) {
 			if (!p.at) continue;
 			const pose = this.draftPose(p)!;
 			const label = `${unitNo(p.unit)}${p.leader ? 'L' : ''}`;
-			if (this.drafts[p.id] && this.drafts[p.id].length > 1) out.push({ id: `${p.id}~start`, side: p.side, footprint: p.footprint, at: p.at, faded: true });
+			if (this.drafts[p.id] && this.drafts[p.id].length > 1) out.push(this.stablePiece({ id: `${p.id}~start`, side: p.side, footprint: p.footprint, at: p.at, faded: true }, seen));
 			const before = pendingBefore[p.id];
-			if (before && (before.x !== p.at.x || before.y !== p.at.y)) out.push({ id: `${p.id}~before`, side: p.side, footprint: p.footprint, at: before, faded: true });
-			out.push({ id: p.id, side: p.side, footprint: p.footprint, at: pose, label, flagged: flagged.has(p.id) });
+			if (before && (before.x !== p.at.x || before.y !== p.at.y)) out.push(this.stablePiece({ id: `${p.id}~before`, side: p.side, footprint: p.footprint, at: before, faded: true }, seen));
+			out.push(this.stablePiece({ id: p.id, side: p.side, footprint: p.footprint, at: pose, label, flagged: flagged.has(p.id) }, seen));
 		}
 		for (const g of this.deployGhosts) out.push(g);
+		this.lastPieces = seen;
 		return out;
 	});
 
@@ -210,6 +239,46 @@ export class PlayState {
 		});
 	});
 
+	/** Each reach map's overlays, made once per map and frozen (the canvas then keys them once). */
+	private shadings = { shaded: new WeakMap<ReachMap, Overlay[]>(), outlined: new WeakMap<ReachMap, Overlay[]>() };
+	private shadingOf(map: ReachMap, shaded: boolean): Overlay[] {
+		const cache = shaded ? this.shadings.shaded : this.shadings.outlined;
+		let list = cache.get(map);
+		if (!list) {
+			list = reachShading(map, shaded ? { shaded: true } : { shaded: false, tone: 'felt' }).map(freezeOverlay);
+			cache.set(map, list);
+		}
+		return list;
+	}
+
+	/** The keep-out bands of every enemy piece: the same frozen objects while the side and the pieces stay. */
+	private keepOuts = $derived.by<Overlay[]>(() => {
+		const side = this.selected?.side;
+		const keepOut = this.game.profile.keepOut;
+		if (!side || this.state.phase !== 'move') return [];
+		const out: Overlay[] = [];
+		for (const p of this.state.pieces) if (p.at && p.side !== side) out.push(Object.freeze({ kind: 'keep-out', pieceId: p.id, distanceIn: keepOut, tone: 'signal' }));
+		return out;
+	});
+
+	/**
+	 * What seldom changes, drawn under the other overlays on a layer of its own: reach shading
+	 * (first, so everything else is drawn over it) and the enemy's keep-out bands. A drag does not
+	 * change them, so the canvas does not repaint them while a piece is dragged.
+	 */
+	belowOverlays = $derived.by<Overlay[]>(() => {
+		const unit = this.selected;
+		if (!unit || this.state.phase !== 'move') return [];
+		const out: Overlay[] = [];
+		if (this.showReach) {
+			if (this.showAllMaps) for (const [id, map] of Object.entries(this.unitMaps)) if (id !== this.reach?.piece) out.push(...this.shadingOf(map, false));
+			if (this.reach && unit.pieces.some((p) => p.id === this.reach!.piece)) out.push(...this.shadingOf(this.reach.map, true));
+		}
+		out.push(...this.keepOuts);
+		return out;
+	});
+
+	/** Everything drawn over `belowOverlays`: paths, spacing links, rings, labels, routes, findings, the tape. */
 	overlays = $derived.by<Overlay[]>(() => {
 		const out: Overlay[] = [];
 		const s = this.state;
@@ -217,13 +286,6 @@ export class PlayState {
 		const unit = this.selected;
 		if (unit && s.phase === 'move') {
 			const tone = unit.side === 'a' ? 'sidea' : 'sideb';
-			// Reach maps first, so everything else is drawn over the shading.
-			if (this.showReach) {
-				if (this.showAllMaps) for (const [id, map] of Object.entries(this.unitMaps)) if (id !== this.reach?.piece) out.push(...reachShading(map, { shaded: false, tone: 'felt' }));
-				if (this.reach && unit.pieces.some((p) => p.id === this.reach!.piece)) out.push(...reachShading(this.reach.map, { shaded: true }));
-			}
-			// Keep-out zones of every enemy piece on the table.
-			for (const p of s.pieces) if (p.at && p.side !== unit.side) out.push({ kind: 'keep-out', pieceId: p.id, distanceIn: prof.keepOut, tone: 'signal' });
 			// Dragged paths, as they will be submitted (simplified).
 			for (const [id, wps] of Object.entries(this.paths)) {
 				const p = s.pieces.find((q) => q.id === id);
@@ -775,6 +837,15 @@ export class PlayState {
 		this.routes = null;
 		this.mapRoutes = null;
 	}
+}
+
+/** An overlay and its point lists frozen: the canvas may then key it once. */
+function freezeOverlay(o: Overlay): Overlay {
+	if (o.kind === 'path') {
+		for (const q of o.points) Object.freeze(q);
+		Object.freeze(o.points);
+	}
+	return Object.freeze(o);
 }
 
 function fmtLimit(v: number): string {

@@ -195,6 +195,18 @@ export function checkRequestFor(layout: Layout, profile: Profile, pieces: readon
 }
 
 /**
+ * The table of the browser's live check (advice only; the server checks the whole request):
+ * the check's table without support rings. In the check, rings only feed the summary of which
+ * units each ring covers, no finding, cost or verdict depends on them, and the play screen shows
+ * that summary from the server's report; on a table with many ring sources it was most of the
+ * check's time on every drag frame.
+ */
+export function liveCheckTable(layout: Layout, profile: Profile, pieces: readonly GamePiece[]): Omit<CheckRequest, 'move'> {
+	const { profile: prof, board, pieces: enginePieces } = checkRequestFor(layout, profile, pieces, { unit: '', kind: 'hold' });
+	return { profile: prof, board, pieces: enginePieces.map((p) => (p.ring ? { ...p, ring: undefined } : p)) };
+}
+
+/**
  * Checks a proposed move with the engine (only this verdict counts) and, when legal, moves the
  * pieces and leaves it awaiting acceptance; an illegal one is logged as refused with its findings.
  */
