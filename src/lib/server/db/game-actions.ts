@@ -1,6 +1,7 @@
-// Every change to a game, as one transaction: lock the game row, check the player and the seq
-// the client saw, run the pure rule step, append its log entries with gap-free seqs, and save
-// the new state. Also game creation (with the invitation e-mail) and joining by invitation.
+// Every change to a game: check the player and the seq the client saw, run the pure rule step,
+// then append its log entries with gap-free seqs and save the new state in one statement that
+// holds only if the game is still at that seq (see `act`). Also game creation (with the
+// invitation e-mail), rosters, and joining by invitation.
 import type { User } from 'lucia';
 import { profileSchema } from '$lib/schemas/check';
 import { layoutSchema, type Layout } from '$lib/schemas/layout';
@@ -80,48 +81,58 @@ export async function exists(gameId: number): Promise<boolean> {
  * Runs one change. Answers 404 (no game), 403 (not a player of it, or the step's refusal),
  * 409 with the current state when `expectedSeq` is stale, the step's refusal, or 200/201/422
  * with the new state. Nothing is written unless the whole change is.
+ *
+ * Optimistic, as the API is: the game is read as it stands, the pure step runs, and one
+ * statement writes the entries and the new state only if the game is still at the seq the step
+ * saw (moves.recordAt). A change that lost the race to another answers 409 like a stale seq.
+ * Three round trips to the database in all (session, read, write) instead of a transaction's
+ * BEGIN, lock, writes and COMMIT: every round trip is a wait for a busy machine's scheduler.
  */
 export async function act(
 	gameId: number,
 	user: User,
 	expectedSeq: number,
-	step: (ctx: Ctx, trx: Db) => StepResult | Promise<StepResult>,
+	step: (ctx: Ctx, db: Db) => StepResult | Promise<StepResult>,
 	okStatus = 200
 ): Promise<Answer> {
-	return db.transaction(async (trx) => {
-		const locked = await games.lockWithPlayers(gameId, trx);
-		if (!locked) return err(404, 'No such game');
-		const { game, players } = locked;
-		const actorSides = players.filter((p) => p.userId === user.id).map((p) => p.side);
-		if (actorSides.length === 0) return err(403, 'Only the players of this game may act in it');
-		if (expectedSeq !== game.seq) {
-			return err(409, `The game has moved on (you saw #${expectedSeq}, it is at #${game.seq}): here is the current state`, {
-				game: toView(game, players, user.id)
-			});
-		}
-		const ctx: Ctx = { state: game.state, layout: game.layout, profile: game.profile, actor: user.id, actorSides, nextSeq: game.seq + 1 };
-		const result = await step(ctx, trx);
-		if (!result.ok && !('entries' in result)) return err(result.status, result.message, { issues: result.issues });
+	const found = await games.findWithPlayers(gameId);
+	if (!found) return err(404, 'No such game');
+	const { game, players } = found;
+	const actorSides = players.filter((p) => p.userId === user.id).map((p) => p.side);
+	if (actorSides.length === 0) return err(403, 'Only the players of this game may act in it');
+	const stale = async (): Promise<Answer> => {
+		const now = (await games.findWithPlayers(gameId)) ?? found;
+		return err(409, `The game has moved on (you saw #${expectedSeq}, it is at #${now.game.seq}): here is the current state`, {
+			game: toView(now.game, now.players, user.id)
+		});
+	};
+	if (expectedSeq !== game.seq) {
+		return err(409, `The game has moved on (you saw #${expectedSeq}, it is at #${game.seq}): here is the current state`, {
+			game: toView(game, players, user.id)
+		});
+	}
+	const ctx: Ctx = { state: game.state, layout: game.layout, profile: game.profile, actor: user.id, actorSides, nextSeq: game.seq + 1 };
+	const result = await step(ctx, db);
+	if (!result.ok && !('entries' in result)) return err(result.status, result.message, { issues: result.issues });
 
-		const entries = result.entries.map((e, i) => ({
-			gameId,
-			seq: game.seq + 1 + i,
-			kind: e.kind,
-			actor: user.id,
-			side: e.side,
-			round: result.state.round,
-			payload: e.payload,
-			report: e.report ?? null
-		}));
-		const seq = game.seq + entries.length;
-		await moves.record(gameId, entries, result.state, seq, trx);
-		const view = toView({ ...game, state: result.state, seq }, players, user.id);
-		if (!result.ok) {
-			// Refused by the referee: the refusal is on the record, the pieces stay where they were.
-			return { status: 422, body: { error: { message: result.message }, report: result.report, seq, game: view } };
-		}
-		return { status: okStatus, body: { seq, report: result.report ?? null, game: view } };
-	});
+	const entries = result.entries.map((e, i) => ({
+		gameId,
+		seq: game.seq + 1 + i,
+		kind: e.kind,
+		actor: user.id,
+		side: e.side,
+		round: result.state.round,
+		payload: e.payload,
+		report: e.report ?? null
+	}));
+	const seq = game.seq + entries.length;
+	if (!(await moves.recordAt(gameId, game.seq, entries, result.state, seq))) return stale();
+	const view = toView({ ...game, state: result.state, seq }, players, user.id);
+	if (!result.ok) {
+		// Refused by the referee: the refusal is on the record, the pieces stay where they were.
+		return { status: 422, body: { error: { message: result.message }, report: result.report, seq, game: view } };
+	}
+	return { status: okStatus, body: { seq, report: result.report ?? null, game: view } };
 }
 
 /** The layout a new game plays on: a saved one (looked up by the caller) or a document. */

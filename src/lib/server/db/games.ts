@@ -61,10 +61,10 @@ export async function lock(id: number, trx: Db): Promise<GameRow | null> {
 	return (row as GameRow | undefined) ?? null;
 }
 
-/** The row locked, and the game's players, in one round trip (the hot path of every change). */
-export async function lockWithPlayers(id: number, trx: Db): Promise<{ game: GameRow; players: GamePlayerRow[] } | null> {
-	const { rows } = await trx.raw(
-		`with g as (select * from games where id = ? for update)
+/** The game and its players in one round trip (the read of every change, see `act`). */
+export async function findWithPlayers(id: number, trx?: Db): Promise<{ game: GameRow; players: GamePlayerRow[] } | null> {
+	const { rows } = await use(trx).raw(
+		`with g as (select * from games where id = ?)
 		select g.id, g.title, g.created_by, g.layout_id, g.layout, g.profile, g.state, g.seq, g.created_at, g.updated_at,
 			coalesce((
 				select json_agg(json_build_object('side', p.side, 'userId', p.user_id, 'displayName', u.display_name, 'rosterId', p.roster_id, 'rosterName', r.name) order by p.side)
@@ -144,4 +144,4 @@ export async function listForUser(userId: string, trx?: Db): Promise<GameListIte
 	}));
 }
 
-export const games = { add, find, lock, lockWithPlayers, saveState, listForUser };
+export const games = { add, find, findWithPlayers, lock, saveState, listForUser };

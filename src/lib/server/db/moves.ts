@@ -1,11 +1,13 @@
 // The move log: append-only. There is deliberately no update or remove here, and the database
-// refuses UPDATE, DELETE and TRUNCATE on game_moves by trigger. Each append also notifies the
-// game's listeners (pg_notify is delivered on commit, so nobody hears of a rolled-back entry).
+// refuses UPDATE, DELETE and TRUNCATE on game_moves by trigger. Each appended entry notifies the
+// game's listeners, by trigger too (pg_notify is delivered on commit, so nobody hears of a
+// rolled-back entry).
 import type { CheckReport } from '$lib/schemas/check';
 import type { GameState, MoveLogEntry, MoveLogKind, Side } from '$lib/schemas/game';
-import { use, type Db } from './index';
+import { db, use, type Db } from './index';
 
-/** One channel for all games; the payload names the game and the new seq. */
+/** One channel for all games; the payload names the game and the new seq (the trigger of
+ * migration 20261201230000 sends it). */
 export const GAME_CHANNEL = 'game_events';
 
 export interface NewMove {
@@ -31,20 +33,18 @@ export async function append(entry: NewMove, trx: Db): Promise<void> {
 		payload: JSON.stringify(entry.payload),
 		report: entry.report ? JSON.stringify(entry.report) : null
 	});
-	await trx.raw('select pg_notify(?, ?)', [GAME_CHANNEL, `${entry.gameId}:${entry.seq}`]);
 }
 
 /**
- * Writes a change in one statement (one round trip): the entries, each notified, and the game's
- * new state and seq. The caller holds the game row's lock; `entries` carry the next seqs in
- * order, gap-free, and `seq` is the last of them (or the current seq when there are none).
+ * Writes a change in one statement, if the game is still at `expectedSeq`: the game's new
+ * state and seq, and the entries (which carry the next seqs in order, gap-free; `seq` is the
+ * last of them). One statement is one transaction: both are written or neither. Answers
+ * false, writing nothing, when another change got there first. A concurrent writer of the
+ * same game waits for the row and then finds its seq moved on.
  */
-export async function record(gameId: number, entries: NewMove[], state: GameState, seq: number, trx: Db): Promise<void> {
-	if (entries.length === 0) {
-		await trx('games').where({ id: gameId }).update({ state: JSON.stringify(state), seq, updated_at: trx.fn.now() });
-		return;
-	}
-	const values = entries.map(() => '(?, ?, ?, ?, ?, ?, ?::jsonb, ?::jsonb)').join(', ');
+export async function recordAt(gameId: number, expectedSeq: number, entries: NewMove[], state: GameState, seq: number): Promise<boolean> {
+	if (entries.length === 0 || seq !== expectedSeq + entries.length) throw new Error('recordAt: entries must carry the next seqs');
+	const values = entries.map(() => '(?::int, ?::int, ?::text, ?::text, ?::text, ?::int, ?::jsonb, ?::jsonb)').join(', ');
 	const bindings = entries.flatMap((e) => [
 		e.gameId,
 		e.seq,
@@ -55,18 +55,20 @@ export async function record(gameId: number, entries: NewMove[], state: GameStat
 		JSON.stringify(e.payload),
 		e.report ? JSON.stringify(e.report) : null
 	]);
-	// Data-modifying CTEs always run to completion; the select only fires the notifications
-	// (delivered on commit, so nobody hears of a rolled-back entry).
-	await trx.raw(
-		`with appended as (
-			insert into game_moves (game_id, seq, kind, actor, side, round, payload, report) values ${values}
-			returning game_id, seq
-		), saved as (
-			update games set state = ?::jsonb, seq = ?, updated_at = now() where id = ? returning id
+	const { rows } = await db.raw(
+		`with saved as (
+			update games set state = ?::jsonb, seq = ?, updated_at = now() where id = ? and seq = ? returning id
+		), appended as (
+			insert into game_moves (game_id, seq, kind, actor, side, round, payload, report)
+			select v.* from (values ${values}) as v (game_id, seq, kind, actor, side, round, payload, report)
+			where exists (select 1 from saved)
+			returning seq
 		)
-		select pg_notify(?, a.game_id || ':' || a.seq) from appended a cross join saved order by a.seq`,
-		[...bindings, JSON.stringify(state), seq, gameId, GAME_CHANNEL]
+		select (select count(*) from saved)::int as saved, (select count(*) from appended)::int as appended`,
+		[JSON.stringify(state), seq, gameId, expectedSeq, ...bindings]
 	);
+	// Both or neither: the entries are inserted only where the update found the game at its seq.
+	return (rows[0] as { saved: number }).saved === 1;
 }
 
 /** The log of a game in order, optionally only the entries after `afterSeq` (catching up). */
@@ -100,4 +102,4 @@ export async function list(gameId: number, afterSeq = 0, trx?: Db): Promise<Move
 	}));
 }
 
-export const moves = { append, record, list };
+export const moves = { append, recordAt, list };
