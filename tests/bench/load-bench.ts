@@ -112,8 +112,8 @@ function figures(r: autocannon.Result): Figures {
 	return { rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, requests: r.requests.total, non2xx: r.non2xx, errors: r.errors + r.timeouts };
 }
 
-function pacedFigures(r: PacedResult): Figures & { max: number; maxQueued: number; clientMaxDelayMs: number } {
-	return { rps: r.rps, p50: r.p50, p99: r.p99, requests: r.requests, non2xx: r.non2xx, errors: r.errors, max: r.max, maxQueued: r.maxQueued, clientMaxDelayMs: r.clientMaxDelayMs };
+function pacedFigures(r: PacedResult): Figures & { max: number; maxAtS: number; maxQueued: number; clientMaxDelayMs: number } {
+	return { rps: r.rps, p50: r.p50, p99: r.p99, requests: r.requests, non2xx: r.non2xx, errors: r.errors, max: r.max, maxAtS: r.maxAtS, maxQueued: r.maxQueued, clientMaxDelayMs: r.clientMaxDelayMs };
 }
 
 function run(opts: autocannon.Options): Promise<autocannon.Result> {
@@ -161,7 +161,7 @@ async function main(): Promise<void> {
 		console.log(line(`check, as fast as it goes`, checkMax, checkMax.rps >= TARGET.checkRps ? `≥ ${TARGET.checkRps} req/s` : `< ${TARGET.checkRps} req/s`));
 		console.log(line(`check, offered ${TARGET.checkRps} req/s (open loop)`, checkAtTarget, ok(checkMet) + ` (≥ ${TARGET.checkRps} req/s at p99 ≤ ${TARGET.checkP99Ms} ms)`));
 		verdicts.push(`check: ${ok(checkMet)}`);
-		paced.push(`check max ${checkAtTarget.max.toFixed(2)} ms, at most ${checkAtTarget.maxQueued} waiting for a lane, the client's own longest stall ${checkAtTarget.clientMaxDelayMs.toFixed(1)} ms`);
+		paced.push(`check max ${checkAtTarget.max.toFixed(2)} ms (due at ${checkAtTarget.maxAtS.toFixed(2)} s), at most ${checkAtTarget.maxQueued} waiting for a lane, the client's own longest stall ${checkAtTarget.clientMaxDelayMs.toFixed(1)} ms`);
 		Object.assign(json, { checkMax, checkAtTarget });
 	}
 
@@ -238,7 +238,7 @@ async function main(): Promise<void> {
 		console.log(line(`commit (move/take-back), flat out`, commitMax, ok(commitMax.p99 <= TARGET.commitP99Ms) + ` (p99 ≤ ${TARGET.commitP99Ms} ms)`));
 		console.log(line(`commit, offered ${COMMIT_RATE} req/s (open loop)`, commitAtRate, ok(commitAtRate.p99 <= TARGET.commitP99Ms) + ` (p99 ≤ ${TARGET.commitP99Ms} ms)`));
 		verdicts.push(`commit: ${ok(commitMet)}`);
-		paced.push(`commit max ${commitAtRate.max.toFixed(2)} ms, at most ${commitAtRate.maxQueued} waiting for a lane, the client's own longest stall ${commitAtRate.clientMaxDelayMs.toFixed(1)} ms`);
+		paced.push(`commit max ${commitAtRate.max.toFixed(2)} ms (due at ${commitAtRate.maxAtS.toFixed(2)} s), at most ${commitAtRate.maxQueued} waiting for a lane, the client's own longest stall ${commitAtRate.clientMaxDelayMs.toFixed(1)} ms`);
 		Object.assign(json, { commitMax, commitAtRate });
 	}
 

@@ -49,6 +49,8 @@ export interface PacedResult {
 	max: number;
 	/** The most requests waiting for a free lane at one moment (0–1: the client kept up). */
 	maxQueued: number;
+	/** When the slowest request fell due, in s from the start of the run. */
+	maxAtS: number;
 	/** This process's own longest event-loop delay, in ms: a stall of the load generator shows
 	 * here, not as the server's latency. */
 	clientMaxDelayMs: number;
@@ -71,6 +73,7 @@ export function runPaced<Lane>(opts: PacedOptions<Lane>): Promise<PacedResult> {
 	let maxQueued = 0;
 	let start = 0;
 	let lastAnswer = 0;
+	let worst = { ms: 0, dueAt: 0 };
 
 	const delay = monitorEventLoopDelay({ resolution: 5 });
 	return new Promise((resolve) => {
@@ -91,6 +94,7 @@ export function runPaced<Lane>(opts: PacedOptions<Lane>): Promise<PacedResult> {
 				p99: ms(99),
 				max: histogram.maxValue / 1000,
 				maxQueued,
+				maxAtS: (worst.dueAt - start) / 1000,
 				clientMaxDelayMs: delay.max / 1e6
 			});
 			histogram.destroy();
@@ -120,6 +124,7 @@ export function runPaced<Lane>(opts: PacedOptions<Lane>): Promise<PacedResult> {
 			const now = performance.now();
 			lastAnswer = now;
 			histogram.recordValue(Math.max(1, Math.round((now - dueAt) * 1000)));
+			if (now - dueAt > worst.ms) worst = { ms: now - dueAt, dueAt };
 			answered++;
 			opts.onResponse?.(lane, status, body);
 			const next = queue.shift();
