@@ -215,6 +215,48 @@ cleanup() {
 	fi
 }
 
+bench_app_up() {
+	# bench_app_up <slot> <database>: the test command's bring-up on a slot of its own for a
+	# benchmark — PostgreSQL, the fakes, a fresh database with the demo, a production build and
+	# the app on 3100 + slot (BENCH_BASE_URL); cleanup (trap it) stops what it started.
+	local slot="$1" database="$2"
+	case "$slot" in [0-9]) ;; *) die "TEST_SLOT must be 0-9" ;; esac
+	export NODE_ENV=production
+	export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-6M}"
+	export HOST=127.0.0.1 PORT="$((3100 + slot))"
+	export ORIGIN="http://127.0.0.1:$PORT" BENCH_BASE_URL="http://127.0.0.1:$PORT"
+	export DATABASE_URL="postgres://postgres@127.0.0.1:$PGPORT/$database"
+	export SMTP_HOST=127.0.0.1 SMTP_PORT="$((2526 + slot))"
+	export FAKE_SMTP_API="http://127.0.0.1:$((2581 + slot))"
+	export S3_ENDPOINT="http://127.0.0.1:$((4570 + slot))" S3_BUCKET="${database//_/-}" S3_REGION=us-east-1
+	export S3_FORCE_PATH_STYLE=true S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER
+	export FAKE_S3_DIR="$DATA/s3-$database"
+	export STRIPE_API_BASE="http://127.0.0.1:$((12120 + slot))" APP_WEBHOOK_URL="$ORIGIN/api/v1/payments/webhook"
+	ensure_deps
+	local port
+	for port in "$PORT" "$SMTP_PORT"; do
+		if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then
+			die "port $port is in use: another run holds slot $slot (set TEST_SLOT=0-9)"
+		fi
+	done
+	pg_up
+	start_fake_smtp
+	rm -rf "$FAKE_S3_DIR"
+	start_fake_s3
+	start_fake_payments
+	log "fresh benchmark database $database"
+	recreate_database "$database"
+	knex_cli migrate:latest >/dev/null
+	node_modules/.bin/tsx scripts/seed-demo.ts
+	log "building"
+	export BUILD_DIR="$DATA/build-$database" SVELTEKIT_OUT_DIR="$DATA/kit-$database"
+	node_modules/.bin/svelte-kit sync
+	node_modules/.bin/vite build --logLevel warn
+	start_bg "app-$database" node "$BUILD_DIR"
+	wait_for_port "$PORT" "the app"
+	log "load average: $(cut -d' ' -f1-3 /proc/loadavg) on $(nproc) cores"
+}
+
 knex_cli() {
 	NODE_OPTIONS='--import tsx' node_modules/.bin/knex --knexfile knexfile.ts "$@"
 }

@@ -4,8 +4,9 @@
 // each request fell due). Prints throughput, p50 and p99 and whether the targets hold:
 // check ≥ 500 requests/s at p99 ≤ 10 ms, commit p99 ≤ 25 ms.
 //
-// Start the app first (`npm start`, http://127.0.0.1:3000 with the demo), or point
-// BENCH_BASE_URL at another one (the test server of `npm test` works too). The bench signs in
+// `npm run bench:load` (scripts/bench-load.sh) brings up an app of its own with the demo on slot
+// 7 and stops it afterwards; with BENCH_BASE_URL set it drives that app instead (`npm start`'s
+// http://127.0.0.1:3000, or the test server of `npm test`). The bench signs in
 // as a demo player (BENCH_EMAIL / BENCH_PASSWORD), saves a roster and sets up its own
 // one-tablet games, so it never touches anyone's game.
 import { cpus, loadavg } from 'node:os';
@@ -130,7 +131,7 @@ async function main(): Promise<void> {
 	try {
 		await fetch(BASE + '/sign-in');
 	} catch {
-		console.error(`No app answers at ${BASE}: start it with \`npm start\` (or set BENCH_BASE_URL).`);
+		console.error(`No app answers at ${BASE}: run \`npm run bench:load\` without BENCH_BASE_URL to bring one up, or start one (\`npm start\`).`);
 		process.exit(2);
 	}
 	must(await api('POST', '/api/v1/session', { email: EMAIL, password: PASSWORD }), `sign in as ${EMAIL}`);

@@ -1,0 +1,17 @@
+#!/usr/bin/env bash
+# npm run bench:load: the check API and the commit route under load (tests/bench/load-bench.ts).
+# With BENCH_BASE_URL set it drives that app as it stands; without, it brings up its own on a
+# slot of its own (TEST_SLOT, default 7: a fresh database inchwarden_load with the demo, a
+# production build, the app on 3107) and stops everything it started afterwards.
+source "$(dirname "$0")/lib.sh"
+
+if [ -n "${BENCH_BASE_URL:-}" ]; then
+	exec node_modules/.bin/tsx tests/bench/load-bench.ts
+fi
+trap cleanup EXIT
+trap 'exit 130' INT TERM
+bench_app_up "${TEST_SLOT:-7}" inchwarden_load
+status=0
+node_modules/.bin/tsx tests/bench/load-bench.ts || status=1
+log "load average after: $(cut -d' ' -f1-3 /proc/loadavg)"
+exit "$status"
