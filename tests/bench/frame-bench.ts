@@ -285,6 +285,30 @@ try {
 	for (const [where, us] of [...selfUs].sort((a, b) => b[1] - a[1]).slice(0, 8)) {
 		console.log(`  ${((100 * us) / total).toFixed(1).padStart(5)} %  ${(us / 1000).toFixed(0).padStart(6)} ms  ${where}${sourceOf(where)}`);
 	}
+	// The same samples by function: self time, and total time (the function or anything it
+	// called; a function on the stack twice counts once), named by script and line:column.
+	const parent = new Map<number, number>();
+	for (const n of profile.nodes) for (const c of n.children ?? []) parent.set(c, n.id);
+	const fnName = (id: number) => {
+		const f = byId.get(id)!.callFrame;
+		const file = f.url ? new URL(f.url, BASE).pathname.split('/').pop() : '';
+		return `${f.functionName || '(anonymous)'}${file ? ` ${file}:${f.lineNumber + 1}:${f.columnNumber + 1}` : ''}`;
+	};
+	const fnSelf = new Map<string, number>();
+	const fnTotal = new Map<string, number>();
+	profile.samples!.forEach((nodeId, i) => {
+		const dt = profile.timeDeltas![i] ?? 0;
+		const own = fnName(nodeId);
+		fnSelf.set(own, (fnSelf.get(own) ?? 0) + dt);
+		const onStack = new Set<string>();
+		for (let id: number | undefined = nodeId; id !== undefined; id = parent.get(id)) onStack.add(fnName(id));
+		for (const f of onStack) fnTotal.set(f, (fnTotal.get(f) ?? 0) + dt);
+	});
+	const row = (f: string, us: number) => `  ${((100 * us) / total).toFixed(1).padStart(5)} %  ${(us / 1000).toFixed(0).padStart(6)} ms  ${f}`;
+	console.log('  by function, self time (top 14):');
+	for (const [f, us] of [...fnSelf].sort((a, b) => b[1] - a[1]).slice(0, 14)) console.log(row(f, us));
+	console.log('  by function, total time (top 20, without the root and idle):');
+	for (const [f, us] of [...fnTotal].filter(([f]) => !/^\((root|idle|program)\)/.test(f)).sort((a, b) => b[1] - a[1]).slice(0, 20)) console.log(row(f, us));
 
 	// What the sampling profiler cannot split — style, layout, paint, canvas work, garbage
 	// collection — a DevTools trace of one more drag can: self time by trace event on the page's

@@ -1,12 +1,17 @@
 // The play screen's state, one instance per page: the game as the server last told it, the
-// unit being moved and its dragged paths, the live check the browser runs on every drag frame,
-// the measuring tool, deployment drags, and the live event stream that keeps two tablets in step.
-import { checkMove, footprintDistance, horizontalIn, localFootprint, pathSteps, pivotIn } from '../../referee';
+// unit being moved and its dragged paths, the live check of the draft (run in a worker, newest
+// draft first), the measuring tool, deployment drags, and the live event stream that keeps two
+// tablets in step.
+// straight from the modules, not the barrel: its check would otherwise come into the page's JavaScript
+import { footprintDistance } from '../../referee/distance';
+import { localFootprint } from '../../referee/footprints';
 import type { CheckReport, Finding, MoveKind, Waypoint } from '../../schemas/check';
 import { otherSide, type GamePiece, type GameView, type MoveLogEntry, type Pose, type Side } from '../../schemas/game';
 import type { BoardPiece, Overlay, BoardPointer } from '../types';
 import type { PointIn } from '../view';
-import { liveCheckTable } from './rules';
+import { liveCheckTable } from './check-request';
+import { LiveClient, type LiveQuestion } from './live-client';
+import type { CostBreakdown, LiveAnswer, LiveLink } from './live-check';
 import type { TracePoint } from './simplify';
 import { unitsOf, type UnitSummary } from './pieces';
 import { gameApi, type ChangeAnswer } from './api';
@@ -34,13 +39,14 @@ function extentIn(p: GamePiece): number {
 
 export type MeasurePick = { piece: string } | { point: PointIn };
 
-export interface CostBreakdown {
-	piece: string;
-	cost: number;
-	allowance: number;
-	horizontal: number;
-	pivot: number;
-	climb: number;
+export type { CostBreakdown } from './live-check';
+
+/** The live check's answer as shown: its question's context, and parts kept as the same objects while unchanged. */
+interface LiveShown {
+	context: string;
+	report: CheckReport | null;
+	breakdown: CostBreakdown[];
+	links: LiveLink[];
 }
 
 export class PlayState {
@@ -127,43 +133,47 @@ export class PlayState {
 	/** The live check's table (rules.ts: no support rings), built once per game update, not per drag frame. */
 	private liveTable = $derived(liveCheckTable(this.game.layout, this.game.profile, this.state.pieces));
 
-	/** The browser's check of the draft move, recomputed on every drag frame (advice only). */
-	liveReport = $derived.by<CheckReport | null>(() => {
-		const unit = this.selectedUnit;
-		if (!unit || this.state.phase !== 'move' || !this.isMyTurn) return null;
-		if (this.kind === 'dash' && this.dieForSelected === null) return null;
-		try {
-			return checkMove({
-				...this.liveTable,
-				move: {
-					unit,
-					kind: this.kind,
-					die: this.kind === 'dash' ? (this.dieForSelected ?? undefined) : undefined,
-					paths: this.kind === 'hold' ? undefined : this.paths
-				}
-			});
-		} catch {
-			return null;
+	/**
+	 * What the live check is asked about the draft: the move (null when no check applies: a dash
+	 * before its die) and where the unit's pieces stand (for the spacing links); null when no
+	 * unit is being moved. `context` names everything but the paths, so an answer about an
+	 * earlier draft of the same move is shown until the newer one comes, and no other.
+	 */
+	private liveQuestion = $derived.by<LiveQuestion | null>(() => {
+		const unit = this.selected;
+		if (!unit || this.state.phase !== 'move') return null;
+		const checks = this.isMyTurn && !(this.kind === 'dash' && this.dieForSelected === null);
+		const die = this.kind === 'dash' ? (this.dieForSelected ?? undefined) : undefined;
+		const ends = [];
+		for (const p of unit.pieces) {
+			const pose = this.draftPose(p);
+			if (pose) ends.push({ id: p.id, footprint: p.footprint, pose: { x: pose.x, y: pose.y, facing: pose.facing ?? 0 } });
 		}
+		return {
+			context: `${this.game.seq}|${unit.unit}|${checks ? this.kind : '-'}|${die ?? ''}`,
+			move: checks ? { unit: unit.unit, kind: this.kind, die, paths: this.kind === 'hold' ? undefined : this.paths } : null,
+			ends
+		};
 	});
 
+	/** The newest live answer that fits the current context (see `liveQuestion`). */
+	private liveShown = $state.raw<LiveShown | null>(null);
+	private liveClient: LiveClient | null = null;
+	/** an answer that came in between frames, applied with the next drag frame (one update per frame) */
+	private liveWaiting: LiveShown | null = null;
+	private liveFrame = 0;
+	private liveEffect: (() => void) | null = null;
+
+	private liveNow = $derived(this.liveQuestion && this.liveShown?.context === this.liveQuestion.context ? this.liveShown : null);
+
+	/** The browser's check of the draft move, from the worker (advice only: the server checks again). */
+	liveReport = $derived<CheckReport | null>(this.liveNow?.report ?? null);
+
 	/** Cost of each dragged piece split into across / turning / climbing. */
-	breakdown = $derived.by<CostBreakdown[]>(() => {
-		const r = this.liveReport;
-		if (!r) return [];
-		const out: CostBreakdown[] = [];
-		for (const [id, wps] of Object.entries(this.paths)) {
-			const p = this.state.pieces.find((q) => q.id === id);
-			const pr = r.pieces[id];
-			if (!p?.at || !pr) continue;
-			const steps = pathSteps(p.at, wps);
-			const local = localFootprint(p.footprint, this.game.profile.tolerance);
-			const horizontal = horizontalIn(steps);
-			const pivot = pivotIn(steps, local.rMaxIn, local.round, this.game.profile);
-			out.push({ piece: id, cost: pr.cost, allowance: pr.allowance, horizontal, pivot, climb: Math.max(0, pr.cost - horizontal - pivot) });
-		}
-		return out;
-	});
+	breakdown = $derived<CostBreakdown[]>(this.liveNow?.breakdown ?? []);
+
+	/** The unit's spacing links at the draft ends the live check was last asked about. */
+	private links = $derived<LiveLink[]>(this.liveNow?.links ?? []);
 
 	/** Findings to show: the server's, when it refused the draft, else the browser's live ones. */
 	findings = $derived<Finding[]>(this.refusal?.report?.findings ?? this.liveReport?.findings ?? []);
@@ -291,26 +301,14 @@ export class PlayState {
 				const p = s.pieces.find((q) => q.id === id);
 				if (p?.at) out.push({ kind: 'path', points: [{ x: p.at.x, y: p.at.y }, ...wps.map((w) => ({ x: w.x, y: w.y }))], tone, arrow: true });
 			}
-			// Spacing links: each piece to its nearest unit-mate, with the edge-to-edge gap.
+			// Spacing links: each piece to its nearest unit-mate, with the edge-to-edge gap, as the
+			// live check's worker measured them (a frame or two behind the finger).
 			const mine = unit.pieces.filter((p) => p.at).map((p) => ({ p, pose: this.draftPose(p)! }));
 			const broken = new Set(this.spacing.map((b) => b.piece));
-			if (mine.length > 1) {
-				const drawn = new Set<string>();
-				for (const a of mine) {
-					let best: { b: (typeof mine)[number]; d: number } | null = null;
-					for (const b of mine) {
-						if (a === b) continue;
-						const d = footprintDistance(a.p.footprint, a.pose, b.p.footprint, b.pose);
-						if (!best || d < best.d) best = { b, d };
-					}
-					if (!best) continue;
-					const key = [a.p.id, best.b.p.id].sort().join('|');
-					if (drawn.has(key)) continue;
-					drawn.add(key);
-					// the gap is measured here; whether spacing breaks is the engine's word (live check)
-					const ok = !broken.has(a.p.id) && !broken.has(best.b.p.id);
-					out.push({ kind: 'link', from: a.pose, to: best.b.pose, tone: ok ? 'ok' : 'signal', dashed: !ok, label: `${best.d.toFixed(2)} in` });
-				}
+			for (const l of this.links) {
+				// whether spacing breaks is the engine's word (live check)
+				const ok = !broken.has(l.a) && !broken.has(l.b);
+				out.push({ kind: 'link', from: l.from, to: l.to, tone: ok ? 'ok' : 'signal', dashed: !ok, label: `${l.gapIn.toFixed(2)} in` });
 			}
 			// Support rings of the unit's sources (radius from the footprint's edge, drawn from the centre).
 			for (const { p, pose } of mine) {
@@ -593,6 +591,58 @@ export class PlayState {
 		this.refusal = null;
 	}
 
+	// --- the live check ----------------------------------------------------------------------------
+
+	/** Asks the worker about every new draft (newest wins, see LiveClient) until `stopLiveCheck`. */
+	private startLiveCheck(): void {
+		if (this.liveClient) return;
+		const client = new LiveClient((a, q) => this.liveAnswered(a, q));
+		this.liveClient = client;
+		this.liveEffect = $effect.root(() => {
+			$effect(() => {
+				const q = this.liveQuestion;
+				client.setTable(this.liveTable);
+				if (q) client.ask(q);
+				else client.clear();
+			});
+		});
+	}
+
+	private stopLiveCheck(): void {
+		this.liveEffect?.();
+		this.liveEffect = null;
+		this.liveClient?.dispose();
+		this.liveClient = null;
+		if (this.liveFrame) cancelAnimationFrame(this.liveFrame);
+		this.liveFrame = 0;
+	}
+
+	/**
+	 * An answer from the worker. It is held for the next drag frame, which updates the board
+	 * anyway, or shown in a frame of its own when the finger rests. What came back the same as
+	 * the answer shown keeps its objects, so the findings, readout and links it would not change
+	 * are not touched.
+	 */
+	private liveAnswered(a: LiveAnswer, q: LiveQuestion): void {
+		const prev = this.liveWaiting ?? this.liveShown;
+		const same = prev && prev.context === q.context;
+		let report = a.report;
+		if (report && same && prev.report && sameJson(prev.report.findings, report.findings)) report = { ...report, findings: prev.report.findings };
+		const breakdown = same && sameJson(prev.breakdown, a.breakdown) ? prev.breakdown : a.breakdown;
+		const links = same && sameJson(prev.links, a.links) ? prev.links : a.links;
+		this.liveWaiting = { context: q.context, report, breakdown, links };
+		if (!this.liveFrame && typeof requestAnimationFrame !== 'undefined') this.liveFrame = requestAnimationFrame(() => this.applyLive());
+		else if (typeof requestAnimationFrame === 'undefined') this.applyLive();
+	}
+
+	private applyLive(): void {
+		if (this.liveFrame) cancelAnimationFrame(this.liveFrame);
+		this.liveFrame = 0;
+		const w = this.liveWaiting;
+		this.liveWaiting = null;
+		if (w && w !== this.liveShown) this.liveShown = w;
+	}
+
 	// --- board gestures ------------------------------------------------------------------------------
 
 	onPointer = (e: BoardPointer): boolean | void => {
@@ -639,6 +689,7 @@ export class PlayState {
 			const last = trace[trace.length - 1];
 			if (Math.hypot(x - last.x, y - last.y) < TRACE_STEP_IN) return;
 			if (this.latestRoute) this.applyRoute();
+			if (this.liveWaiting) this.applyLive();
 			this.drafts = { ...this.drafts, [g.piece]: [...trace, { x, y }] };
 			if (!g.redeploy) this.askRoute(g.piece, x, y);
 			return;
@@ -816,6 +867,7 @@ export class PlayState {
 	connect(): void {
 		if (this.events) return;
 		this.routes ??= new RouteClient();
+		this.startLiveCheck();
 		void this.refreshRequests();
 		const es = new EventSource(this.api.eventsUrl);
 		this.events = es;
@@ -830,6 +882,7 @@ export class PlayState {
 	disconnect(): void {
 		this.events?.close();
 		this.events = null;
+		this.stopLiveCheck();
 		if (this.routeTimer) clearTimeout(this.routeTimer);
 		this.routeTimer = null;
 		this.routes?.dispose();
@@ -846,6 +899,11 @@ function freezeOverlay(o: Overlay): Overlay {
 		Object.freeze(o.points);
 	}
 	return Object.freeze(o);
+}
+
+/** Two answers' parts compared by content (small: a unit's findings, costs, links). */
+function sameJson(a: unknown, b: unknown): boolean {
+	return a === b || JSON.stringify(a) === JSON.stringify(b);
 }
 
 function fmtLimit(v: number): string {

@@ -7,7 +7,7 @@ import type { Finding, MoveKind, Profile, Waypoint } from '../../schemas/check';
 import type { GamePiece } from '../../schemas/game';
 import type { Layout } from '../../schemas/layout';
 import type { Overlay, Tone } from '../types';
-import { checkRequestFor } from './rules';
+import { checkRequestFor } from './check-request';
 import { simplifyTrace, type TracePoint } from './simplify';
 
 /** "6" for a whole number of inches, else "6.50": allowances as players say them. */

@@ -3,11 +3,14 @@
 // next` functions: the server runs them inside the locked transaction, the tests run them bare.
 import { checkMove, endPose } from '../../referee';
 import { checkRequestSchema, type CheckReport, type CheckRequest, type Profile } from '../../schemas/check';
-import { layoutToBoard, type Layout } from '../../schemas/layout';
+import type { Layout } from '../../schemas/layout';
 import type { Unit } from '../../schemas/roster';
 import { otherSide, type GamePiece, type GameState, type MoveLogKind, type Pose, type ProposeMove, type Side } from '../../schemas/game';
-import { enginePieces, expandRoster } from './pieces';
+import { expandRoster } from './pieces';
+import { checkRequestFor } from './check-request';
 import { boardRing, footprintInside, overlaps } from './zone';
+
+export { checkRequestFor, liveCheckTable } from './check-request';
 
 /** A log entry a step wants appended (the server gives it its seq). */
 export interface NewEntry {
@@ -182,28 +185,6 @@ export function roll(ctx: Ctx, unit: string, die: number): StepResult {
 	const next = clone(s);
 	next.die = { unit, value: die, seq: ctx.nextSeq };
 	return { ok: true, state: next, entries: [{ kind: 'roll', side: s.activeSide, payload: { unit, die, purpose: 'dash' } }] };
-}
-
-/** The engine's request for a proposed move on the current table. */
-export function checkRequestFor(layout: Layout, profile: Profile, pieces: readonly GamePiece[], move: { unit: string; kind: ProposeMove['kind']; die?: number; paths?: ProposeMove['paths'] }): CheckRequest {
-	return {
-		profile,
-		board: layoutToBoard(layout),
-		pieces: enginePieces(pieces),
-		move: { unit: move.unit, kind: move.kind, die: move.die, paths: move.paths }
-	};
-}
-
-/**
- * The table of the browser's live check (advice only; the server checks the whole request):
- * the check's table without support rings. In the check, rings only feed the summary of which
- * units each ring covers, no finding, cost or verdict depends on them, and the play screen shows
- * that summary from the server's report; on a table with many ring sources it was most of the
- * check's time on every drag frame.
- */
-export function liveCheckTable(layout: Layout, profile: Profile, pieces: readonly GamePiece[]): Omit<CheckRequest, 'move'> {
-	const { profile: prof, board, pieces: enginePieces } = checkRequestFor(layout, profile, pieces, { unit: '', kind: 'hold' });
-	return { profile: prof, board, pieces: enginePieces.map((p) => (p.ring ? { ...p, ring: undefined } : p)) };
 }
 
 /**

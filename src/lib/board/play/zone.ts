@@ -1,6 +1,6 @@
 // Where a piece may be put down at deployment: wholly inside one of its side's deployment zones
 // (or on the table when the layout gives that side none), and on nobody else's footprint.
-import { footprintDistance, placedFootprint } from '../../referee';
+import { footprintDistance, placedFootprint } from '../../referee/distance';
 import type { FootprintIn } from '../../schemas/check';
 import type { Pose } from '../../schemas/game';
 

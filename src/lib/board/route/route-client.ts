@@ -2,7 +2,7 @@
 // reach map), then ask for routes while dragging (only the newest drag position is answered; older
 // ones resolve to null), and for the nearest legal end on a drop. Create one per play screen.
 import type { NearestResult, ReachMap, RouteRequest, RouteResult } from '$lib/referee/route';
-import { answer, type PlannerSlot } from './route-answer';
+import type { PlannerSlot } from './route-answer';
 import type { RouteAnswer, RouteAsk } from './route-protocol';
 
 type Pending = { resolve: (a: RouteAnswer) => void };
@@ -35,7 +35,9 @@ export class RouteClient {
 
 	private ask(a: Ask): Promise<RouteAnswer> {
 		const full = { ...a, id: this.nextId++ } as RouteAsk;
-		if (!this.worker) return Promise.resolve(answer(this.slot, full));
+		// without a worker the finder is loaded on this thread when first asked (dynamic import), so
+		// the page's own JavaScript does not carry the engine the worker already has
+		if (!this.worker) return import('./route-answer').then(({ answer }) => answer(this.slot, full));
 		return new Promise((resolve) => {
 			this.pending.set(full.id, { resolve });
 			this.worker!.postMessage(full);
