@@ -215,6 +215,27 @@ cleanup() {
 	fi
 }
 
+services_up() {
+	# services_up <database> <slot>: after the slot's ports are set — refuse a slot another run
+	# holds (before touching anything of it), then PostgreSQL, the three fakes, and a fresh
+	# database, migrated, with the demo.
+	local database="$1" slot="$2" port
+	for port in "$PORT" "$SMTP_PORT"; do
+		if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then
+			die "port $port is in use: another run holds slot $slot (set TEST_SLOT=0-9)"
+		fi
+	done
+	pg_up
+	start_fake_smtp
+	rm -rf "$FAKE_S3_DIR"
+	start_fake_s3
+	start_fake_payments
+	log "fresh database $database"
+	recreate_database "$database"
+	knex_cli migrate:latest >/dev/null
+	node_modules/.bin/tsx scripts/seed-demo.ts
+}
+
 bench_app_up() {
 	# bench_app_up <slot> <database>: the test command's bring-up on a slot of its own for a
 	# benchmark — PostgreSQL, the fakes, a fresh database with the demo, a production build and
@@ -233,21 +254,7 @@ bench_app_up() {
 	export FAKE_S3_DIR="$DATA/s3-$database"
 	export STRIPE_API_BASE="http://127.0.0.1:$((12120 + slot))" APP_WEBHOOK_URL="$ORIGIN/api/v1/payments/webhook"
 	ensure_deps
-	local port
-	for port in "$PORT" "$SMTP_PORT"; do
-		if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then
-			die "port $port is in use: another run holds slot $slot (set TEST_SLOT=0-9)"
-		fi
-	done
-	pg_up
-	start_fake_smtp
-	rm -rf "$FAKE_S3_DIR"
-	start_fake_s3
-	start_fake_payments
-	log "fresh benchmark database $database"
-	recreate_database "$database"
-	knex_cli migrate:latest >/dev/null
-	node_modules/.bin/tsx scripts/seed-demo.ts
+	services_up "$database" "$slot"
 	log "building"
 	export BUILD_DIR="$DATA/build-$database" SVELTEKIT_OUT_DIR="$DATA/kit-$database"
 	node_modules/.bin/svelte-kit sync

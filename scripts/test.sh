@@ -32,22 +32,7 @@ trap 'exit 130' INT TERM
 ensure_deps
 [ -x "$CHROMIUM_PATH" ] || apt_install chromium fonts-liberation
 export STRIPE_API_BASE="http://127.0.0.1:$((12120 + SLOT))" APP_WEBHOOK_URL="$ORIGIN/api/v1/payments/webhook"
-# Another run on the same slot owns these ports and this slot's database: refuse before
-# touching anything of it.
-for port in "$PORT" "$SMTP_PORT"; do
-	if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then
-		die "port $port is in use: another test run holds slot $SLOT (set TEST_SLOT=0-9)"
-	fi
-done
-pg_up
-start_fake_smtp
-rm -rf "$FAKE_S3_DIR"
-start_fake_s3
-start_fake_payments
-log "fresh test database"
-recreate_database "${DATABASE_URL##*/}"
-knex_cli migrate:latest >/dev/null
-node_modules/.bin/tsx scripts/seed-demo.ts
+services_up "${DATABASE_URL##*/}" "$SLOT"
 
 FAILED=()
 stage() { local name="$1"; shift; log "── $name"; "$@" || FAILED+=("$name"); }

@@ -4,38 +4,11 @@
 // and however many drafts come while one is checked, only the newest is asked next.
 import { describe, expect, it } from 'vitest';
 import { checkMove } from '$lib/referee';
-import { chooseRoster, deploy, endTurn, initialState, liveCheckTable, type Ctx, type StepResult } from '$lib/board/play/rules';
+import { liveCheckTable } from '$lib/board/play/rules';
 import { liveAnswer, linksOf, type LiveAnswer, type LiveAsk, type LiveEnd, type LiveSlot } from '$lib/board/play/live-check';
 import { LiveClient, type LivePort, type LiveQuestion } from '$lib/board/play/live-client';
-import type { GameState, Side } from '$lib/schemas/game';
-import { LAYOUT, PROFILE, UNITS_A, UNITS_B } from './fixtures';
-
-function ctx(state: GameState, sides: Side[] = ['a', 'b']): Ctx {
-	return { state, layout: LAYOUT, profile: PROFILE, actor: 'u-both', actorSides: sides, nextSeq: 1 };
-}
-function ok(r: StepResult): GameState {
-	if (!r.ok) throw new Error(`refused: ${r.message}`);
-	return r.state;
-}
-
-/** A's Lantern Guard (32 mm, 6 in) in a row at y 6 (x 10, 12, 14); B's hounds at y 54. */
-function ready(): GameState {
-	let s = initialState('a');
-	s = ok(chooseRoster(ctx(s), 'a', { id: 1, name: 'A list', units: UNITS_A }));
-	s = ok(chooseRoster(ctx(s), 'b', { id: 2, name: 'B list', units: UNITS_B }));
-	s = ok(deploy(ctx(s), 'a', [
-		{ piece: 'a-u1-p1', at: { x: 10, y: 6 } },
-		{ piece: 'a-u1-p2', at: { x: 12, y: 6 } },
-		{ piece: 'a-u1-p3', at: { x: 14, y: 6 } },
-		{ piece: 'a-u2-p1', at: { x: 20, y: 6 } }
-	]));
-	s = ok(endTurn(ctx(s)));
-	s = ok(deploy(ctx(s), 'b', [
-		{ piece: 'b-u1-p1', at: { x: 10, y: 54, facing: 270 } },
-		{ piece: 'b-u1-p2', at: { x: 13, y: 54, facing: 270 } }
-	]));
-	return ok(endTurn(ctx(s)));
-}
+import { LAYOUT, PROFILE } from './fixtures';
+import { ready } from './ready-table';
 
 const round32 = { shape: 'round', diameterMm: 32 } as const;
 const end = (id: string, x: number, y: number): LiveEnd => ({ id, footprint: round32, pose: { x, y, facing: 0 } });

@@ -5,38 +5,11 @@
 import { describe, expect, it } from 'vitest';
 import { checkMove } from '$lib/referee';
 import { RouteClient } from '$lib/board/route/route-client';
-import { checkRequestFor, chooseRoster, deploy, endTurn, initialState, type Ctx, type StepResult } from '$lib/board/play/rules';
+import { checkRequestFor } from '$lib/board/play/rules';
 import { offerFor, offerWords, pathWith, pickKey, reachShading, ringArea, routeRequestFor, routeWords, spacingBreaks } from '$lib/board/play/reach';
-import type { GameState, Side } from '$lib/schemas/game';
 import type { RouteResult } from '$lib/referee/route';
-import { LAYOUT, PROFILE, UNITS_A, UNITS_B } from './fixtures';
-
-function ctx(state: GameState, sides: Side[] = ['a', 'b']): Ctx {
-	return { state, layout: LAYOUT, profile: PROFILE, actor: 'u-both', actorSides: sides, nextSeq: 1 };
-}
-function ok(r: StepResult): GameState {
-	if (!r.ok) throw new Error(`refused: ${r.message}`);
-	return r.state;
-}
-
-/** A's Lantern Guard in a row at y 6 (x 10, 12, 14), its Beacon Crew (40 mm, 5 in) alone at (20, 6); B far off at y 54. */
-function ready(): GameState {
-	let s = initialState('a');
-	s = ok(chooseRoster(ctx(s), 'a', { id: 1, name: 'A list', units: UNITS_A }));
-	s = ok(chooseRoster(ctx(s), 'b', { id: 2, name: 'B list', units: UNITS_B }));
-	s = ok(deploy(ctx(s), 'a', [
-		{ piece: 'a-u1-p1', at: { x: 10, y: 6 } },
-		{ piece: 'a-u1-p2', at: { x: 12, y: 6 } },
-		{ piece: 'a-u1-p3', at: { x: 14, y: 6 } },
-		{ piece: 'a-u2-p1', at: { x: 20, y: 6 } }
-	]));
-	s = ok(endTurn(ctx(s)));
-	s = ok(deploy(ctx(s), 'b', [
-		{ piece: 'b-u1-p1', at: { x: 10, y: 54, facing: 270 } },
-		{ piece: 'b-u1-p2', at: { x: 13, y: 54, facing: 270 } }
-	]));
-	return ok(endTurn(ctx(s)));
-}
+import { LAYOUT, PROFILE } from './fixtures';
+import { ready } from './ready-table';
 
 describe('the finder on the play screen', () => {
 	it('maps a lone piece in open ground: at most the disc of its allowance, nearly all of it', async () => {
