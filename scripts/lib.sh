@@ -156,6 +156,20 @@ start_bg() {
 	STARTED_PIDS+=("$!")
 }
 
+# How the app's Node runs (npm start, npm test, the benches). V8's allocation-site pretenuring
+# watches which allocation sites' objects survive a young collection and, past a threshold,
+# allocates theirs straight in the old generation. A burst of concurrent requests trips it for
+# the request path (SvelteKit's event, undici's Request and streams, zod's output), and from
+# then on every request's short-lived objects land in the old generation: promotion rose from
+# ~0.4 to ~1.4 MB per scavenge, scavenges took 3-7 ms instead of 1-2, and a 10-15 ms full
+# collection followed every few seconds (docs/reliability.md §6 has the traces and runs).
+APP_NODE_FLAGS=(--no-allocation-site-pretenuring)
+
+start_app() {
+	# start_app <name> <build dir>: the production server in the background (start_bg)
+	start_bg "$1" node "${APP_NODE_FLAGS[@]}" "$2"
+}
+
 port_of() { node -e "console.log(new URL(process.argv[1]).port)" "$1"; }
 
 start_fake() {
@@ -259,7 +273,7 @@ bench_app_up() {
 	export BUILD_DIR="$DATA/build-$database" SVELTEKIT_OUT_DIR="$DATA/kit-$database"
 	node_modules/.bin/svelte-kit sync
 	node_modules/.bin/vite build --logLevel warn
-	start_bg "app-$database" node "$BUILD_DIR"
+	start_app "app-$database" "$BUILD_DIR"
 	wait_for_port "$PORT" "the app"
 	log "load average: $(cut -d' ' -f1-3 /proc/loadavg) on $(nproc) cores"
 }

@@ -34,7 +34,7 @@ log "building"
 node_modules/.bin/svelte-kit sync
 node_modules/.bin/vite build --logLevel warn
 
-start_bg app node build
+start_app app build
 wait_for_port "$PORT" "the app"
 cat <<MSG
 

@@ -41,7 +41,7 @@ stage "svelte-check" bash -c 'node_modules/.bin/svelte-kit sync && node_modules/
 log "building"
 export BUILD_DIR="$DATA/build-test$SUFFIX" SVELTEKIT_OUT_DIR="$DATA/kit-test$SUFFIX"
 node_modules/.bin/vite build --logLevel warn
-start_bg "app-test$SUFFIX" node "$BUILD_DIR"
+start_app "app-test$SUFFIX" "$BUILD_DIR"
 wait_for_port "$PORT" "the app"
 
 stage "vitest" env NODE_OPTIONS='--import tsx' node_modules/.bin/vitest run "$@"
