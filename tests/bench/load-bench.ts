@@ -113,8 +113,13 @@ function figures(r: autocannon.Result): Figures {
 	return { rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, requests: r.requests.total, non2xx: r.non2xx, errors: r.errors + r.timeouts };
 }
 
-function pacedFigures(r: PacedResult): Figures & { max: number; maxAtS: number; maxQueued: number; clientMaxDelayMs: number } {
-	return { rps: r.rps, p50: r.p50, p99: r.p99, requests: r.requests, non2xx: r.non2xx, errors: r.errors, max: r.max, maxAtS: r.maxAtS, maxQueued: r.maxQueued, clientMaxDelayMs: r.clientMaxDelayMs };
+function pacedFigures(r: PacedResult): Figures & Pick<PacedResult, 'max' | 'maxAtS' | 'maxQueued' | 'clientMaxDelayMs' | 'machine'> {
+	return { rps: r.rps, p50: r.p50, p99: r.p99, requests: r.requests, non2xx: r.non2xx, errors: r.errors, max: r.max, maxAtS: r.maxAtS, maxQueued: r.maxQueued, clientMaxDelayMs: r.clientMaxDelayMs, machine: r.machine };
+}
+
+/** How busy the machine was during an open-loop run, and how much of its CPU time was stolen. */
+function machineWords(m: PacedResult['machine']): string {
+	return m ? `, machine ${m.busyPct.toFixed(0)} % busy, ${m.stealPct.toFixed(1)} % stolen by the host` : '';
 }
 
 function run(opts: autocannon.Options): Promise<autocannon.Result> {
@@ -182,7 +187,7 @@ async function main(): Promise<void> {
 		console.log(line(`check, as fast as it goes`, checkMax, checkMax.rps >= TARGET.checkRps ? `≥ ${TARGET.checkRps} req/s` : `< ${TARGET.checkRps} req/s`));
 		console.log(line(`check, offered ${TARGET.checkRps} req/s (open loop)`, checkAtTarget, ok(checkMet) + ` (≥ ${TARGET.checkRps} req/s at p99 ≤ ${TARGET.checkP99Ms} ms)`));
 		verdicts.push(`check: ${ok(checkMet)}`);
-		paced.push(`check max ${checkAtTarget.max.toFixed(2)} ms (due at ${checkAtTarget.maxAtS.toFixed(2)} s), at most ${checkAtTarget.maxQueued} waiting for a lane, the client's own longest stall ${checkAtTarget.clientMaxDelayMs.toFixed(1)} ms`);
+		paced.push(`check max ${checkAtTarget.max.toFixed(2)} ms (due at ${checkAtTarget.maxAtS.toFixed(2)} s), at most ${checkAtTarget.maxQueued} waiting for a lane, the client's own longest stall ${checkAtTarget.clientMaxDelayMs.toFixed(1)} ms${machineWords(checkAtTarget.machine)}`);
 		Object.assign(json, { checkMax, checkAtTarget });
 	}
 
@@ -270,7 +275,7 @@ async function main(): Promise<void> {
 		console.log(line(`commit (move/take-back), flat out`, commitMax, ok(commitMax.p99 <= TARGET.commitP99Ms) + ` (p99 ≤ ${TARGET.commitP99Ms} ms)`));
 		console.log(line(`commit, offered ${COMMIT_RATE} req/s (open loop)`, commitAtRate, ok(commitAtRate.p99 <= TARGET.commitP99Ms) + ` (p99 ≤ ${TARGET.commitP99Ms} ms)`));
 		verdicts.push(`commit: ${ok(commitMet)}`);
-		paced.push(`commit max ${commitAtRate.max.toFixed(2)} ms (due at ${commitAtRate.maxAtS.toFixed(2)} s), at most ${commitAtRate.maxQueued} waiting for a lane, the client's own longest stall ${commitAtRate.clientMaxDelayMs.toFixed(1)} ms`);
+		paced.push(`commit max ${commitAtRate.max.toFixed(2)} ms (due at ${commitAtRate.maxAtS.toFixed(2)} s), at most ${commitAtRate.maxQueued} waiting for a lane, the client's own longest stall ${commitAtRate.clientMaxDelayMs.toFixed(1)} ms${machineWords(commitAtRate.machine)}`);
 		Object.assign(json, { commitMax, commitAtRate });
 	}
 

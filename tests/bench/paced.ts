@@ -12,6 +12,7 @@
 // on the first free lane (a keep-alive connection and, for commits, a game of its own); its
 // latency is counted from when it was due, not from when it went out, so a stall counts against
 // every request that fell due during it — the honest way to avoid coordinated omission.
+import { readFileSync } from 'node:fs';
 import http from 'node:http';
 import { monitorEventLoopDelay, performance } from 'node:perf_hooks';
 import * as hdr from 'hdr-histogram-js';
@@ -54,6 +55,21 @@ export interface PacedResult {
 	/** This process's own longest event-loop delay, in ms: a stall of the load generator shows
 	 * here, not as the server's latency. */
 	clientMaxDelayMs: number;
+	/** The whole machine over the run, from /proc/stat (null where there is none): the share of
+	 * CPU time that was busy, and the share stolen — time the hypervisor gave this virtual
+	 * machine's CPUs to someone else while they had work, a stall no process here can see. */
+	machine: { busyPct: number; stealPct: number } | null;
+}
+
+/** The summed CPU times of the first line of /proc/stat (user … steal), or null. */
+function cpuTimes(): { total: number; idle: number; steal: number } | null {
+	try {
+		const f = readFileSync('/proc/stat', 'utf8').split('\n')[0].trim().split(/\s+/).slice(1, 9).map(Number);
+		const [user, nice, system, idle, iowait, irq, softirq, steal] = f;
+		return { total: user + nice + system + idle + iowait + irq + softirq + steal, idle: idle + iowait, steal };
+	} catch {
+		return null;
+	}
 }
 
 export function runPaced<Lane>(opts: PacedOptions<Lane>): Promise<PacedResult> {
@@ -76,6 +92,7 @@ export function runPaced<Lane>(opts: PacedOptions<Lane>): Promise<PacedResult> {
 	let worst = { ms: 0, dueAt: 0 };
 
 	const delay = monitorEventLoopDelay({ resolution: 5 });
+	let cpuAtStart: ReturnType<typeof cpuTimes> = null;
 	return new Promise((resolve) => {
 		const finish = () => {
 			clearInterval(timer);
@@ -83,6 +100,8 @@ export function runPaced<Lane>(opts: PacedOptions<Lane>): Promise<PacedResult> {
 			agent.destroy();
 			const spanS = Math.max(seconds, (lastAnswer - start) / 1000);
 			const ms = (q: number) => histogram.getValueAtPercentile(q) / 1000;
+			const cpuAtEnd = cpuTimes();
+			const span = cpuAtStart && cpuAtEnd ? cpuAtEnd.total - cpuAtStart.total : 0;
 			resolve({
 				offered: rate,
 				rps: answered / spanS,
@@ -95,7 +114,14 @@ export function runPaced<Lane>(opts: PacedOptions<Lane>): Promise<PacedResult> {
 				max: histogram.maxValue / 1000,
 				maxQueued,
 				maxAtS: (worst.dueAt - start) / 1000,
-				clientMaxDelayMs: delay.max / 1e6
+				clientMaxDelayMs: delay.max / 1e6,
+				machine:
+					cpuAtStart && cpuAtEnd && span > 0
+						? {
+								busyPct: (100 * (span - (cpuAtEnd.idle - cpuAtStart.idle))) / span,
+								stealPct: (100 * (cpuAtEnd.steal - cpuAtStart.steal)) / span
+							}
+						: null
 			});
 			histogram.destroy();
 		};
@@ -144,6 +170,7 @@ export function runPaced<Lane>(opts: PacedOptions<Lane>): Promise<PacedResult> {
 			maxQueued = Math.max(maxQueued, queue.length);
 		};
 		delay.enable();
+		cpuAtStart = cpuTimes();
 		start = performance.now();
 		// Node's timers fire about every millisecond at best; requests keep their exact due times
 		// however late the tick that sends them, so timer jitter counts as latency, not hidden.
