@@ -117,9 +117,10 @@ function pacedFigures(r: PacedResult): Figures & Pick<PacedResult, 'max' | 'maxA
 	return { rps: r.rps, p50: r.p50, p99: r.p99, requests: r.requests, non2xx: r.non2xx, errors: r.errors, max: r.max, maxAtS: r.maxAtS, maxQueued: r.maxQueued, clientMaxDelayMs: r.clientMaxDelayMs, machine: r.machine };
 }
 
-/** How busy the machine was during an open-loop run, and how much of its CPU time was stolen. */
+/** How busy the machine was during an open-loop run, how much of its CPU time was stolen, and
+ * how many pages had to be read back from disk. */
 function machineWords(m: PacedResult['machine']): string {
-	return m ? `, machine ${m.busyPct.toFixed(0)} % busy, ${m.stealPct.toFixed(1)} % stolen by the host` : '';
+	return m ? `, machine ${m.busyPct.toFixed(0)} % busy, ${m.stealPct.toFixed(1)} % stolen by the host, ${m.majorFaults} major page faults, ${m.refaults} file pages read back` : '';
 }
 
 function run(opts: autocannon.Options): Promise<autocannon.Result> {

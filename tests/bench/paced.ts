@@ -57,16 +57,28 @@ export interface PacedResult {
 	clientMaxDelayMs: number;
 	/** The whole machine over the run, from /proc/stat (null where there is none): the share of
 	 * CPU time that was busy, and the share stolen — time the hypervisor gave this virtual
-	 * machine's CPUs to someone else while they had work, a stall no process here can see. */
-	machine: { busyPct: number; stealPct: number } | null;
+	 * machine's CPUs to someone else while they had work, a stall no process here can see; and
+	 * the major page faults (a mapped page — code, a library — read back from disk after the
+	 * kernel paged it out) and the file pages read back after eviction (`workingset_refault_file`:
+	 * also what PostgreSQL reads through the page cache), each a stall of whoever needed it. */
+	machine: { busyPct: number; stealPct: number; majorFaults: number; refaults: number } | null;
 }
 
-/** The summed CPU times of the first line of /proc/stat (user … steal), or null. */
-function cpuTimes(): { total: number; idle: number; steal: number } | null {
+/** The summed CPU times of the first line of /proc/stat (user … steal), the system's major
+ * page faults and file pages read back after eviction so far (/proc/vmstat), or null. */
+function cpuTimes(): { total: number; idle: number; steal: number; majorFaults: number; refaults: number } | null {
 	try {
 		const f = readFileSync('/proc/stat', 'utf8').split('\n')[0].trim().split(/\s+/).slice(1, 9).map(Number);
 		const [user, nice, system, idle, iowait, irq, softirq, steal] = f;
-		return { total: user + nice + system + idle + iowait + irq + softirq + steal, idle: idle + iowait, steal };
+		const vm = readFileSync('/proc/vmstat', 'utf8');
+		const count = (name: string) => Number(new RegExp(`^${name} (\\d+)$`, 'm').exec(vm)?.[1] ?? NaN);
+		return {
+			total: user + nice + system + idle + iowait + irq + softirq + steal,
+			idle: idle + iowait,
+			steal,
+			majorFaults: count('pgmajfault'),
+			refaults: count('workingset_refault_file')
+		};
 	} catch {
 		return null;
 	}
@@ -119,7 +131,9 @@ export function runPaced<Lane>(opts: PacedOptions<Lane>): Promise<PacedResult> {
 					cpuAtStart && cpuAtEnd && span > 0
 						? {
 								busyPct: (100 * (span - (cpuAtEnd.idle - cpuAtStart.idle))) / span,
-								stealPct: (100 * (cpuAtEnd.steal - cpuAtStart.steal)) / span
+								stealPct: (100 * (cpuAtEnd.steal - cpuAtStart.steal)) / span,
+								majorFaults: cpuAtEnd.majorFaults - cpuAtStart.majorFaults,
+								refaults: cpuAtEnd.refaults - cpuAtStart.refaults
 							}
 						: null
 			});
