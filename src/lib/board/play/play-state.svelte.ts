@@ -22,6 +22,8 @@ import type { RulingRequestView } from '../../schemas/ruling';
 
 /** Smallest pointer travel (in) that adds a point to a dragged path: finer than the 0.1 in simplification. */
 const TRACE_STEP_IN = 0.02;
+/** While a piece is dragged, the board shows the newest draft at the latest this long after a move (ms) when no answer came. */
+const SHOW_LATE_MS = 150;
 /** One press of a turn button turns the piece this much. */
 export const TURN_STEP_DEG = 15;
 
@@ -59,10 +61,22 @@ export class PlayState {
 	kind = $state<MoveKind>('move');
 	/** raw dragged traces, starting at the piece's position, per piece of the selected unit */
 	drafts = $state.raw<Record<string, TracePoint[]>>({});
+	/**
+	 * The drafts as the board draws them. While a piece is dragged they follow `drafts` with the
+	 * live check's answers (and the route finder's), not with every pointer move: the paths,
+	 * links and labels on the board then change once per answer, together with what the answer
+	 * says about them, and a pointer move only moves the piece under the finger (`held`).
+	 * Otherwise they are `drafts`.
+	 */
+	private shownDrafts = $state.raw<Record<string, TracePoint[]>>({});
+	/** the dragged piece where the finger is: the board moves it at once */
+	held = $state.raw<{ id: string; at: Pose } | null>(null);
 	activePiece = $state<string | null>(null);
 	/** per piece: how many trace points after the start are the route finder's (kept verbatim) */
 	fixed = $state.raw<Record<string, number>>({});
-	private grab: { piece: string; dx: number; dy: number; redeploy: boolean } | null = null;
+	private grab: { piece: string; dx: number; dy: number; facing: number; redeploy: boolean } | null = null;
+	/** shows the newest drafts if no answer came to show them with (the check may not apply) */
+	private showTimer: ReturnType<typeof setTimeout> | null = null;
 
 	// The route finder (advice; the live check is the verdict). One worker answers the picked
 	// piece's map, drag routes and nearest-legal offers; a second builds the unit's other maps.
@@ -124,11 +138,23 @@ export class PlayState {
 	selected = $derived<UnitSummary | null>(this.units.find((u) => u.unit === this.selectedUnit) ?? null);
 
 	/** The simplified waypoints of every dragged piece: exactly what would be submitted. */
-	paths = $derived.by(() => {
+	paths = $derived(this.pathsOf(this.drafts));
+	/** The same, of the drafts the board shows. */
+	private shownPaths = $derived(this.pathsOf(this.shownDrafts));
+
+	/** each trace's waypoints, kept while the trace array and its fixed part stay the same */
+	private simplified = new WeakMap<TracePoint[], { fixed: number; path: Waypoint[] }>();
+	private pathsOf(drafts: Record<string, TracePoint[]>): Record<string, Waypoint[]> {
 		const out: Record<string, Waypoint[]> = {};
-		for (const [id, trace] of Object.entries(this.drafts)) if (trace.length > 1) out[id] = pathWith(trace, this.fixed[id] ?? 0);
+		for (const [id, trace] of Object.entries(drafts)) {
+			if (trace.length < 2) continue;
+			const fixed = this.fixed[id] ?? 0;
+			let known = this.simplified.get(trace);
+			if (!known || known.fixed !== fixed) this.simplified.set(trace, (known = { fixed, path: pathWith(trace, fixed) }));
+			out[id] = known.path;
+		}
 		return out;
-	});
+	}
 
 	/** The live check's table (rules.ts: no support rings), built once per game update, not per drag frame. */
 	private liveTable = $derived(liveCheckTable(this.game.layout, this.game.profile, this.state.pieces));
@@ -184,10 +210,10 @@ export class PlayState {
 	/** Ruling requests still waiting for a judge's word. */
 	openRequests = $derived(this.requests.filter((r) => r.status !== 'ruled'));
 
-	/** Where each piece of the selected unit stands at the end of its draft path. */
-	private draftPose(p: GamePiece): Pose | null {
+	/** Where each piece of the selected unit stands at the end of its draft path (of `drafts`, or of the ones given). */
+	private draftPose(p: GamePiece, drafts = this.drafts): Pose | null {
 		if (!p.at) return null;
-		const trace = this.drafts[p.id];
+		const trace = drafts[p.id];
 		if (!trace || trace.length < 2) return p.at;
 		let facing = p.at.facing ?? 0;
 		for (const t of trace) if (t.facing !== undefined) facing = t.facing;
@@ -218,21 +244,40 @@ export class PlayState {
 		return out;
 	}
 
-	/** Pieces drawn on the board: draft positions, ghosts of where dragged pieces started, deploy previews. */
-	boardPieces = $derived.by<BoardPiece[]>(() => {
-		const flagged = new Set(this.findings.filter((f) => f.severity !== 'warning').map((f) => f.pieces[0]));
-		const out: BoardPiece[] = [];
-		const seen = new Map<string, BoardPiece>();
-		const unitNo = (unit: string) => unit.split('-u')[1] ?? '';
+	/**
+	 * Every deployed piece where it stands, unflagged, and the ghost of where it stood before the
+	 * move awaiting acceptance: frozen, made once per game update, handed to the board as they
+	 * are for every piece that is neither dragged nor flagged.
+	 */
+	private standing = $derived.by(() => {
+		const out = new Map<string, { piece: BoardPiece; before: BoardPiece | null }>();
 		const pendingBefore = this.pending?.before ?? {};
 		for (const p of this.state.pieces) {
 			if (!p.at) continue;
-			const pose = this.draftPose(p)!;
-			const label = `${unitNo(p.unit)}${p.leader ? 'L' : ''}`;
-			if (this.drafts[p.id] && this.drafts[p.id].length > 1) out.push(this.stablePiece({ id: `${p.id}~start`, side: p.side, footprint: p.footprint, at: p.at, faded: true }, seen));
-			const before = pendingBefore[p.id];
-			if (before && (before.x !== p.at.x || before.y !== p.at.y)) out.push(this.stablePiece({ id: `${p.id}~before`, side: p.side, footprint: p.footprint, at: before, faded: true }, seen));
-			out.push(this.stablePiece({ id: p.id, side: p.side, footprint: p.footprint, at: pose, label, flagged: flagged.has(p.id) }, seen));
+			const label = `${p.unit.split('-u')[1] ?? ''}${p.leader ? 'L' : ''}`;
+			const piece = Object.freeze({ id: p.id, side: p.side, footprint: p.footprint, at: Object.freeze({ ...p.at }), label, flagged: false });
+			const b = pendingBefore[p.id];
+			const before = b && (b.x !== p.at.x || b.y !== p.at.y) ? Object.freeze({ id: `${p.id}~before`, side: p.side, footprint: p.footprint, at: Object.freeze({ ...b }), faded: true }) : null;
+			out.set(p.id, { piece, before });
+		}
+		return out;
+	});
+
+	/** Pieces drawn on the board: draft positions, ghosts of where dragged pieces started, deploy previews. */
+	boardPieces = $derived.by<BoardPiece[]>(() => {
+		const flagged = new Set(this.findings.filter((f) => f.severity !== 'warning').map((f) => f.pieces[0]));
+		const drafts = this.shownDrafts;
+		const standing = this.standing;
+		const out: BoardPiece[] = [];
+		const seen = new Map<string, BoardPiece>();
+		for (const p of this.state.pieces) {
+			const base = standing.get(p.id);
+			if (!base) continue;
+			const moved = (drafts[p.id]?.length ?? 0) > 1;
+			if (moved) out.push(this.stablePiece({ id: `${p.id}~start`, side: p.side, footprint: p.footprint, at: p.at!, faded: true }, seen));
+			if (base.before) out.push(base.before);
+			if (!moved && !flagged.has(p.id)) out.push(base.piece);
+			else out.push(this.stablePiece({ ...base.piece, at: this.draftPose(p, drafts)!, flagged: flagged.has(p.id) }, seen));
 		}
 		for (const g of this.deployGhosts) out.push(g);
 		this.lastPieces = seen;
@@ -296,14 +341,15 @@ export class PlayState {
 		const unit = this.selected;
 		if (unit && s.phase === 'move') {
 			const tone = unit.side === 'a' ? 'sidea' : 'sideb';
+			const shown = this.shownDrafts;
 			// Dragged paths, as they will be submitted (simplified).
-			for (const [id, wps] of Object.entries(this.paths)) {
+			for (const [id, wps] of Object.entries(this.shownPaths)) {
 				const p = s.pieces.find((q) => q.id === id);
 				if (p?.at) out.push({ kind: 'path', points: [{ x: p.at.x, y: p.at.y }, ...wps.map((w) => ({ x: w.x, y: w.y }))], tone, arrow: true });
 			}
 			// Spacing links: each piece to its nearest unit-mate, with the edge-to-edge gap, as the
 			// live check's worker measured them (a frame or two behind the finger).
-			const mine = unit.pieces.filter((p) => p.at).map((p) => ({ p, pose: this.draftPose(p)! }));
+			const mine = unit.pieces.filter((p) => p.at).map((p) => ({ p, pose: this.draftPose(p, shown)! }));
 			const broken = new Set(this.spacing.map((b) => b.piece));
 			for (const l of this.links) {
 				// whether spacing breaks is the engine's word (live check)
@@ -319,7 +365,7 @@ export class PlayState {
 			// Allowance used on each dragged piece: "5.84 in of 6".
 			for (const b of this.breakdown) {
 				const p = s.pieces.find((q) => q.id === b.piece)!;
-				const pose = this.draftPose(p)!;
+				const pose = this.draftPose(p, shown)!;
 				const over = b.cost > b.allowance + prof.tolerance;
 				out.push({ kind: 'label', x: pose.x, y: pose.y - 1.2, text: `${b.cost.toFixed(2)} in of ${fmtLimit(b.allowance)}${over ? ' — too far' : ''}`, tone: over ? 'signal' : 'ink' });
 			}
@@ -339,13 +385,13 @@ export class PlayState {
 		for (const f of this.findings) {
 			if (f.severity === 'warning') continue;
 			const p = s.pieces.find((q) => q.id === f.pieces[0]);
-			const pose = p ? this.draftPose(p) : null;
+			const pose = p ? this.draftPose(p, this.shownDrafts) : null;
 			if (pose && f.code !== 'spacing') out.push({ kind: 'warning', x: pose.x + 0.9, y: pose.y - 0.9, label: f.code.replace(/-/g, ' ') });
 		}
 		// Where spacing would break, by the live check: a marker with the gap at each piece it names.
 		for (const b of this.spacing) {
 			const p = s.pieces.find((q) => q.id === b.piece);
-			const pose = p ? this.draftPose(p) : null;
+			const pose = p ? this.draftPose(p, this.shownDrafts) : null;
 			if (pose) out.push({ kind: 'warning', x: pose.x + 0.9, y: pose.y - 0.9, label: 'spacing' });
 		}
 		// The move awaiting acceptance, drawn for both players.
@@ -430,7 +476,7 @@ export class PlayState {
 	}
 
 	private clearDrafts(): void {
-		this.drafts = {};
+		this.setDrafts({});
 		this.fixed = {};
 		this.dragRoute = null;
 		this.offer = null;
@@ -545,6 +591,7 @@ export class PlayState {
 		const r = this.latestRoute;
 		this.latestRoute = null;
 		if (r && this.grab?.piece === r.piece) this.dragRoute = r;
+		this.showDrafts();
 	}
 
 	/** After a drop: if the finder cannot reach the spot, offer the nearest legal one. */
@@ -568,7 +615,7 @@ export class PlayState {
 		const p = this.state.pieces.find((q) => q.id === o.piece);
 		if (!p?.at) return;
 		const trace: TracePoint[] = [{ x: p.at.x, y: p.at.y }, ...o.waypoints.map((w) => ({ x: w.x, y: w.y }))];
-		this.drafts = { ...this.drafts, [o.piece]: trace };
+		this.setDrafts({ ...this.drafts, [o.piece]: trace });
 		this.fixed = { ...this.fixed, [o.piece]: o.waypoints.length };
 		this.activePiece = o.piece;
 		this.offer = null;
@@ -586,7 +633,7 @@ export class PlayState {
 		const trace = this.drafts[id] ?? [{ x: p.at.x, y: p.at.y }];
 		const pose = this.draftPose(p)!;
 		const facing = (((pose.facing ?? 0) + deltaDeg) % 360 + 360) % 360;
-		this.drafts = { ...this.drafts, [id]: [...trace, { x: pose.x, y: pose.y, facing }] };
+		this.setDrafts({ ...this.drafts, [id]: [...trace, { x: pose.x, y: pose.y, facing }] });
 		this.activePiece = id;
 		this.refusal = null;
 	}
@@ -641,9 +688,23 @@ export class PlayState {
 		const w = this.liveWaiting;
 		this.liveWaiting = null;
 		if (w && w !== this.liveShown) this.liveShown = w;
+		this.showDrafts();
 	}
 
 	// --- board gestures ------------------------------------------------------------------------------
+
+	/** New drafts, shown on the board at once (a drag's own moves go through `held` and `showDrafts`). */
+	private setDrafts(next: Record<string, TracePoint[]>): void {
+		this.drafts = next;
+		this.showDrafts();
+	}
+
+	/** The board catches up with the newest drafts. */
+	private showDrafts(): void {
+		if (this.showTimer) clearTimeout(this.showTimer);
+		this.showTimer = null;
+		if (this.shownDrafts !== this.drafts) this.shownDrafts = this.drafts;
+	}
 
 	onPointer = (e: BoardPointer): boolean | void => {
 		const s = this.state;
@@ -653,8 +714,8 @@ export class PlayState {
 			const piece = s.pieces.find((p) => p.id === e.target!.id);
 			if (!piece?.at || !this.isMyTurn || piece.side !== s.activeSide) return false;
 			if (s.phase === 'deploy') {
-				this.grab = { piece: piece.id, dx: e.at.x - piece.at.x, dy: e.at.y - piece.at.y, redeploy: true };
-				this.drafts = { [piece.id]: [{ x: piece.at.x, y: piece.at.y }] };
+				this.grab = { piece: piece.id, dx: e.at.x - piece.at.x, dy: e.at.y - piece.at.y, facing: piece.at.facing ?? 0, redeploy: true };
+				this.setDrafts({ [piece.id]: [{ x: piece.at.x, y: piece.at.y }] });
 				return true;
 			}
 			if (s.phase !== 'move' || this.pending) return false;
@@ -669,8 +730,8 @@ export class PlayState {
 				return false;
 			}
 			const pose = this.draftPose(piece)!;
-			this.grab = { piece: piece.id, dx: e.at.x - pose.x, dy: e.at.y - pose.y, redeploy: false };
-			if (!this.drafts[piece.id]) this.drafts = { ...this.drafts, [piece.id]: [{ x: piece.at.x, y: piece.at.y }] };
+			this.grab = { piece: piece.id, dx: e.at.x - pose.x, dy: e.at.y - pose.y, facing: pose.facing ?? 0, redeploy: false };
+			if (!this.drafts[piece.id]) this.setDrafts({ ...this.drafts, [piece.id]: [{ x: piece.at.x, y: piece.at.y }] });
 			this.activePiece = piece.id;
 			this.refusal = null;
 			this.notice = null;
@@ -690,15 +751,21 @@ export class PlayState {
 			if (Math.hypot(x - last.x, y - last.y) < TRACE_STEP_IN) return;
 			if (this.latestRoute) this.applyRoute();
 			if (this.liveWaiting) this.applyLive();
+			// the newest draft goes to the live check (liveQuestion); the board moves the piece
+			// under the finger and shows the rest with the answer (shownDrafts)
 			this.drafts = { ...this.drafts, [g.piece]: [...trace, { x, y }] };
+			this.held = { id: g.piece, at: { x, y, facing: g.facing } };
+			this.showTimer ??= setTimeout(() => this.showDrafts(), SHOW_LATE_MS);
 			if (!g.redeploy) this.askRoute(g.piece, x, y);
 			return;
 		}
 		if (e.phase === 'up' || e.phase === 'cancel') {
 			this.grab = null;
+			this.showDrafts();
+			this.held = null;
 			if (g.redeploy) {
 				const trace = this.drafts[g.piece];
-				this.drafts = {};
+				this.setDrafts({});
 				const end = trace?.[trace.length - 1];
 				const p = s.pieces.find((q) => q.id === g.piece);
 				if (e.phase === 'up' && end && p?.at && trace.length > 1) void this.deploy([{ piece: g.piece, at: { x: end.x, y: end.y, facing: p.at.facing ?? 0 } }]);
@@ -883,6 +950,8 @@ export class PlayState {
 		this.events?.close();
 		this.events = null;
 		this.stopLiveCheck();
+		if (this.showTimer) clearTimeout(this.showTimer);
+		this.showTimer = null;
 		if (this.routeTimer) clearTimeout(this.routeTimer);
 		this.routeTimer = null;
 		this.routes?.dispose();
