@@ -250,23 +250,33 @@ services_up() {
 	node_modules/.bin/tsx scripts/seed-demo.ts
 }
 
+slot_env() {
+	# slot_env <slot> <database> <bucket> <store>: the settings of an app on a slot of its own
+	# (npm test, the benches): app 3100 + slot, fake SMTP 2526 + slot (listing 2581 + slot),
+	# fake S3 4570 + slot with its bucket and store under .data/, fake payments 12120 + slot.
+	local slot="$1" database="$2" bucket="$3" store="$4"
+	export NODE_ENV=production
+	# Uploads may be up to UPLOAD_MAX_BYTES (5 MiB); routes enforce their own, smaller caps.
+	export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-6M}"
+	export HOST=127.0.0.1 PORT="$((3100 + slot))"
+	export ORIGIN="http://127.0.0.1:$PORT"
+	export DATABASE_URL="postgres://postgres@127.0.0.1:$PGPORT/$database"
+	export SMTP_HOST=127.0.0.1 SMTP_PORT="$((2526 + slot))"
+	export FAKE_SMTP_API="http://127.0.0.1:$((2581 + slot))"
+	export S3_ENDPOINT="http://127.0.0.1:$((4570 + slot))" S3_BUCKET="$bucket" S3_REGION=us-east-1
+	export S3_FORCE_PATH_STYLE=true S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER
+	export FAKE_S3_DIR="$DATA/$store"
+	export STRIPE_API_BASE="http://127.0.0.1:$((12120 + slot))" APP_WEBHOOK_URL="$ORIGIN/api/v1/payments/webhook"
+}
+
 bench_app_up() {
 	# bench_app_up <slot> <database>: the test command's bring-up on a slot of its own for a
 	# benchmark — PostgreSQL, the fakes, a fresh database with the demo, a production build and
 	# the app on 3100 + slot (BENCH_BASE_URL); cleanup (trap it) stops what it started.
 	local slot="$1" database="$2"
 	case "$slot" in [0-9]) ;; *) die "TEST_SLOT must be 0-9" ;; esac
-	export NODE_ENV=production
-	export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-6M}"
-	export HOST=127.0.0.1 PORT="$((3100 + slot))"
-	export ORIGIN="http://127.0.0.1:$PORT" BENCH_BASE_URL="http://127.0.0.1:$PORT"
-	export DATABASE_URL="postgres://postgres@127.0.0.1:$PGPORT/$database"
-	export SMTP_HOST=127.0.0.1 SMTP_PORT="$((2526 + slot))"
-	export FAKE_SMTP_API="http://127.0.0.1:$((2581 + slot))"
-	export S3_ENDPOINT="http://127.0.0.1:$((4570 + slot))" S3_BUCKET="${database//_/-}" S3_REGION=us-east-1
-	export S3_FORCE_PATH_STYLE=true S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER
-	export FAKE_S3_DIR="$DATA/s3-$database"
-	export STRIPE_API_BASE="http://127.0.0.1:$((12120 + slot))" APP_WEBHOOK_URL="$ORIGIN/api/v1/payments/webhook"
+	slot_env "$slot" "$database" "${database//_/-}" "s3-$database"
+	export BENCH_BASE_URL="$ORIGIN"
 	ensure_deps
 	services_up "$database" "$slot"
 	log "building"

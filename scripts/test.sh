@@ -4,22 +4,14 @@
 # Chromium. Every stage runs; the command fails if any stage failed.
 source "$(dirname "$0")/lib.sh"
 
-export NODE_ENV=production
 # TEST_SLOT=N (0-9) gives a run its own ports, database and store, so that several runs can
 # go on side by side on one machine.
 SLOT="${TEST_SLOT:-0}"
 case "$SLOT" in [0-9]) ;; *) die "TEST_SLOT must be 0-9" ;; esac
 SUFFIX=""; [ "$SLOT" = 0 ] || SUFFIX="_$SLOT"
-# Uploads may be up to UPLOAD_MAX_BYTES (5 MiB); routes enforce their own, smaller caps.
-export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-6M}"
-export HOST=127.0.0.1 PORT="$((3100 + SLOT))"
-export ORIGIN="http://127.0.0.1:$PORT" TEST_BASE_URL="http://127.0.0.1:$PORT"
-export DATABASE_URL="${TEST_DATABASE_URL:-postgres://postgres@127.0.0.1:$PGPORT/inchwarden_test$SUFFIX}"
-export SMTP_HOST=127.0.0.1 SMTP_PORT="$((2526 + SLOT))"
-export FAKE_SMTP_API="http://127.0.0.1:$((2581 + SLOT))"
-export S3_ENDPOINT="http://127.0.0.1:$((4570 + SLOT))" S3_BUCKET=inchwarden-test S3_REGION=us-east-1
-export S3_FORCE_PATH_STYLE=true S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER
-export FAKE_S3_DIR="$DATA/s3-test$SUFFIX" PW_OUTPUT_DIR="test-results/e2e$SUFFIX"
+slot_env "$SLOT" "inchwarden_test$SUFFIX" inchwarden-test "s3-test$SUFFIX"
+[ -z "${TEST_DATABASE_URL:-}" ] || export DATABASE_URL="$TEST_DATABASE_URL"
+export TEST_BASE_URL="$ORIGIN" PW_OUTPUT_DIR="test-results/e2e$SUFFIX"
 # The test server trusts x-forwarded-for so tests can act as distinct client addresses.
 export ADDRESS_HEADER=x-forwarded-for XFF_DEPTH=1
 export CHROMIUM_PATH="${CHROMIUM_PATH:-/usr/bin/chromium}"
@@ -31,7 +23,6 @@ trap 'exit 130' INT TERM
 
 ensure_deps
 [ -x "$CHROMIUM_PATH" ] || apt_install chromium fonts-liberation
-export STRIPE_API_BASE="http://127.0.0.1:$((12120 + SLOT))" APP_WEBHOOK_URL="$ORIGIN/api/v1/payments/webhook"
 services_up "${DATABASE_URL##*/}" "$SLOT"
 
 FAILED=()
