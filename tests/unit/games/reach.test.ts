@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { checkMove } from '$lib/referee';
 import { RouteClient } from '$lib/board/route/route-client';
 import { checkRequestFor } from '$lib/board/play/rules';
-import { offerFor, offerWords, pathWith, pickKey, reachShading, ringArea, routeRequestFor, routeWords, spacingBreaks } from '$lib/board/play/reach';
+import { offerFor, offerWords, pathWith, pickKey, reachShading, ringArea, routeParts, routeRequestFor, routeWords, spacingBreaks } from '$lib/board/play/reach';
 import type { RouteResult } from '$lib/referee/route';
 import { LAYOUT, PROFILE } from './fixtures';
 import { ready } from './ready-table';
@@ -130,5 +130,8 @@ describe('drawing', () => {
 		expect(routeWords(r({}))).toBe('6.50 in of 6 — too far');
 		expect(routeWords(r({ costIn: Infinity, reason: 'no route for x within the allowance of 6.00 in ends there' }))).toMatch(/^no route for x/);
 		expect(routeWords(r({ reachable: true, costIn: 5.844, allowanceIn: 6.5 }))).toBe('5.84 in of 6.50');
+		// the screen sets the figure apart from the words that follow it
+		expect(routeParts(r({}))).toEqual({ cost: '6.50', rest: ' in of 6 — too far' });
+		expect(routeParts(r({ costIn: Infinity, endLegal: false }))).toEqual({ cost: null, rest: 'no legal route ends here' });
 	});
 });

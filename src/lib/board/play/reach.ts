@@ -84,9 +84,15 @@ export function reachShading(map: ReachMap, opts: { shaded: boolean; tone?: Tone
 
 /** "5.84 in of 6" for a route within reach; otherwise why there is none, in words. */
 export function routeWords(route: RouteResult): string {
-	if (route.reachable) return `${route.costIn.toFixed(2)} in of ${limitText(route.allowanceIn)}`;
-	if (route.costIn < Infinity && route.endLegal) return `${route.costIn.toFixed(2)} in of ${limitText(route.allowanceIn)} — too far`;
-	return route.reason ?? 'no legal route ends here';
+	const w = routeParts(route);
+	return `${w.cost ?? ''}${w.rest}`;
+}
+
+/** The same words as the cost (null when there is none) and what follows it, for a screen that sets the figure apart. */
+export function routeParts(route: RouteResult): { cost: string | null; rest: string } {
+	if (route.reachable) return { cost: route.costIn.toFixed(2), rest: ` in of ${limitText(route.allowanceIn)}` };
+	if (route.costIn < Infinity && route.endLegal) return { cost: route.costIn.toFixed(2), rest: ` in of ${limitText(route.allowanceIn)} — too far` };
+	return { cost: null, rest: route.reason ?? 'no legal route ends here' };
 }
 
 /**
