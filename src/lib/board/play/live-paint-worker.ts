@@ -1,8 +1,9 @@
 // The live painter: draws the board's live layer (the pieces that just changed, the dragged one
 // among them, under the overlays) onto a canvas the page handed over (OffscreenCanvas), off the
-// page's main thread. The page sends a scene whenever the live layer changes; the worker draws
-// the newest one in its own animation frame, and its frames reach the screen without the page's:
-// a drag frame then costs the page a message, not a draw, a raster and a canvas hand-over.
+// page's main thread. The page sends a scene at most once a frame, whenever the live layer
+// changes; the worker draws the newest one in a task of its own (scenes that come together are
+// drawn once), and its frames reach the screen without the page's: a drag frame then costs the
+// page a message, not a draw, a raster and a canvas hand-over.
 import { BOARD_FONT, ChipWidths, drawOverlay, drawPiece, type PaintAsk, type PaintPiece, type PieceAt } from './board-paint';
 import interBold from '@fontsource/inter/files/inter-latin-700-normal.woff2?url';
 import type { Overlay } from '../types';
@@ -15,14 +16,13 @@ let scene: Scene | null = null;
 let overlays: Overlay[] = [];
 let keepOut: NonNullable<Scene['keepOut']> = {};
 let pieces: PaintPiece[] = [];
-let frame = 0;
+let pending: ReturnType<typeof setTimeout> | null = null;
 
 const widths = new ChipWidths(() => ctx);
 const pieceAt: PieceAt = (id) => keepOut[id] ?? null;
 
 const scope = self as unknown as {
 	fonts?: { add(f: FontFace): void };
-	requestAnimationFrame?: (cb: () => void) => number;
 	onmessage: ((e: MessageEvent<PaintAsk>) => void) | null;
 };
 
@@ -42,13 +42,16 @@ if (typeof FontFace !== 'undefined' && scope.fonts) {
 	);
 }
 
+// Not the worker's requestAnimationFrame: its callbacks follow the canvas's own frames, and in
+// the e2e runs one of them stopped coming after a drop, so that the layer was never drawn again.
+// A canvas drawn in a task is shown when the task ends.
 function request() {
-	if (frame || !scene) return;
-	frame = scope.requestAnimationFrame ? scope.requestAnimationFrame(draw) : (setTimeout(draw, 0) as unknown as number);
+	if (pending || !scene) return;
+	pending = setTimeout(draw, 0);
 }
 
 function draw() {
-	frame = 0;
+	pending = null;
 	const s = scene;
 	if (!s || !canvas || !ctx) return;
 	const w = Math.max(1, Math.round(s.width * s.ratio));
