@@ -1,9 +1,9 @@
 // The live painter: draws the board's live layer (the pieces that just changed, the dragged one
 // among them, under the overlays) onto a canvas the page handed over (OffscreenCanvas), off the
 // page's main thread. The page sends a scene at most once a frame, whenever the live layer
-// changes; the worker draws the newest one in its own animation frame (scenes that come together
-// are drawn once), and its frames reach the screen without the page's: a drag frame then costs
-// the page a message, not a draw, a raster and a canvas hand-over.
+// changes; the worker draws the newest one in a task of its own (scenes that come together are
+// drawn once), and its frames reach the screen without the page's: a drag frame then costs the
+// page a message, not a draw, a raster and a canvas hand-over.
 import { BOARD_FONT, ChipWidths, drawOverlay, drawPiece, type PaintAsk, type PaintPiece, type PieceAt } from './board-paint';
 import interBold from '@fontsource/inter/files/inter-latin-700-normal.woff2?url';
 import type { Overlay } from '../types';
@@ -16,18 +16,13 @@ let scene: Scene | null = null;
 let overlays: Overlay[] = [];
 let keepOut: NonNullable<Scene['keepOut']> = {};
 let pieces: PaintPiece[] = [];
-let frame = 0;
-let late: ReturnType<typeof setTimeout> | null = null;
-/** how long a scene may wait for the worker's animation frame before it is drawn without one (ms) */
-const LATE_MS = 50;
+let pending: ReturnType<typeof setTimeout> | null = null;
 
 const widths = new ChipWidths(() => ctx);
 const pieceAt: PieceAt = (id) => keepOut[id] ?? null;
 
 const scope = self as unknown as {
 	fonts?: { add(f: FontFace): void };
-	requestAnimationFrame?: (cb: () => void) => number;
-	cancelAnimationFrame?: (id: number) => void;
 	onmessage: ((e: MessageEvent<PaintAsk>) => void) | null;
 };
 
@@ -47,22 +42,17 @@ if (typeof FontFace !== 'undefined' && scope.fonts) {
 	);
 }
 
-// In the worker's animation frame, which keeps the drawing to the display's pace (drawing on
-// every scene as it came took more of the shared CPU: 44 frames over 25 ms against 19–23). But
-// its callbacks follow the canvas's own frames, and in the reach e2e one stopped coming after a
-// drop, so that the layer was never drawn again: a scene that waits longer than LATE_MS is drawn
-// in a task of its own (a canvas drawn in a task is shown when the task ends).
+// Not in the worker's animation frames: in the reach e2e their callbacks stopped coming after a
+// drop and the live layer stayed blank, and with a fallback task for a late frame the layer was
+// still blank in the screenshot taken just after the drop. A canvas drawn in a task is shown when
+// the task ends; the page posts at most one scene a frame, so this keeps to its pace.
 function request() {
-	if (late || !scene) return;
-	if (scope.requestAnimationFrame) frame = scope.requestAnimationFrame(draw);
-	late = setTimeout(draw, scope.requestAnimationFrame ? LATE_MS : 0);
+	if (pending || !scene) return;
+	pending = setTimeout(draw, 0);
 }
 
 function draw() {
-	if (frame) scope.cancelAnimationFrame?.(frame);
-	frame = 0;
-	if (late) clearTimeout(late);
-	late = null;
+	pending = null;
 	const s = scene;
 	if (!s || !canvas || !ctx) return;
 	const w = Math.max(1, Math.round(s.width * s.ratio));
