@@ -287,6 +287,19 @@ try {
 	);
 	// the verdict compares the figure as measured, to the hundredth (a gap of 16.7000001 ms is 16.70)
 	console.log(`target p95 ≤ ${TARGET_MS} ms: ${Number(p95.toFixed(2)) <= TARGET_MS ? 'met' : 'NOT met'}`);
+	// The same gaps counted in display intervals. rAF fires once per interval of the frame clock
+	// (the idle page's median gap), and its timestamps are coarsened, so one interval reads
+	// 16.6-16.8 ms; a gap counts as n intervals when it is more than n-1 intervals and 5 % (about
+	// 0.8 ms: a 17.6 ms gap is two), so only the clock's own wobble is forgiven, never a late frame.
+	const interval = pct(idleSorted, 0.5);
+	const intervals = sorted.map((g) => Math.max(1, Math.ceil(g / interval - 0.05)));
+	const p95Intervals = pct([...intervals].sort((a, b) => a - b), 0.95);
+	const oneInterval = intervals.filter((n) => n === 1).length;
+	console.log(
+		`in display intervals of ${fmt(interval)} (the idle page's median gap): p95 ${p95Intervals} interval${p95Intervals === 1 ? '' : 's'} = ${fmt(p95Intervals * (1000 / 60))} at 60 Hz; ` +
+			`${oneInterval} of ${intervals.length} frames (${((100 * oneInterval) / intervals.length).toFixed(1)} %) within one; ` +
+			`target p95 ≤ ${TARGET_MS} ms read so: ${p95Intervals === 1 ? 'met' : 'NOT met'}`
+	);
 	// the issue's other reading of the same target: frames that took two frame intervals or more
 	const share = (100 * missed) / sorted.length;
 	console.log(`frames over 25 ms (two frame intervals or more): ${share.toFixed(1)} % of frames; fewer than 5 %: ${share < 5 ? 'met' : 'NOT met'}`);
