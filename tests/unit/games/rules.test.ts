@@ -6,6 +6,7 @@ import { accept, checkRequestFor, chooseRoster, deploy, endTurn, initialState, l
 import { checkMove } from '$lib/referee';
 import type { GameState, Side } from '$lib/schemas/game';
 import { LAYOUT, PROFILE, UNITS_A, UNITS_B } from './fixtures';
+import { readyWithEntries } from './ready-table';
 
 let seq = 0;
 function ctx(state: GameState, sides: Side[] = ['a', 'b'], actor = 'u-both'): Ctx {
@@ -17,25 +18,12 @@ function ok(r: StepResult): GameState {
 	return r.state;
 }
 
-/** Both rosters chosen, A's unit 1 deployed in a row at y 6, B's unit 1 at y 54, ended both deployments. */
+/** Both rosters chosen, A's unit 1 deployed in a row at y 6, B's unit 1 at y 54, ended both
+ * deployments (ready-table.ts); the seq count goes on from the entries that wrote. */
 function ready(): GameState {
-	seq = 0;
-	let s = initialState('a');
-	s = ok(chooseRoster(ctx(s), 'a', { id: 1, name: 'A list', units: UNITS_A }));
-	s = ok(chooseRoster(ctx(s), 'b', { id: 2, name: 'B list', units: UNITS_B }));
-	s = ok(deploy(ctx(s), 'a', [
-		{ piece: 'a-u1-p1', at: { x: 10, y: 6 } },
-		{ piece: 'a-u1-p2', at: { x: 12, y: 6 } },
-		{ piece: 'a-u1-p3', at: { x: 14, y: 6 } },
-		{ piece: 'a-u2-p1', at: { x: 20, y: 6 } }
-	]));
-	s = ok(endTurn(ctx(s)));
-	s = ok(deploy(ctx(s), 'b', [
-		{ piece: 'b-u1-p1', at: { x: 10, y: 54, facing: 270 } },
-		{ piece: 'b-u1-p2', at: { x: 13, y: 54, facing: 270 } }
-	]));
-	s = ok(endTurn(ctx(s)));
-	return s;
+	const r = readyWithEntries();
+	seq = r.entries;
+	return r.state;
 }
 
 describe('setup and deployment', () => {
