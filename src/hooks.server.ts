@@ -1,9 +1,16 @@
 // Request hooks: load the session and user into locals, add security headers, and keep
 // unexpected errors from leaking details. Combined with `sequence`.
-import type { Handle, HandleServerError } from '@sveltejs/kit';
+import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { auth, SESSION_COOKIE } from '$lib/server/auth';
 import { closeDb } from '$lib/server/db';
+import { installRequestSignals } from '$lib/server/request-signal';
+
+// Before the first request: requests keep their abort signal without a finalizer per request
+// (request-signal.ts says why).
+export const init: ServerInit = () => {
+	installRequestSignals();
+};
 
 export const handleSession: Handle = async ({ event, resolve }) => {
 	const token = event.cookies.get(SESSION_COOKIE);
