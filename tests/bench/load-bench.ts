@@ -11,6 +11,7 @@
 // one-tablet games, so it never touches anyone's game.
 import { cpus, loadavg } from 'node:os';
 import autocannon from 'autocannon';
+import { flushProbe, type FlushFigures } from './disk';
 import { runPaced, type PacedResult } from './paced';
 import { LAYOUT, UNITS_A } from '../unit/games/fixtures';
 
@@ -24,6 +25,8 @@ const COMMIT_CONNECTIONS = Number(process.env.BENCH_COMMIT_CONNECTIONS ?? 4);
 const COMMIT_RATE = Number(process.env.BENCH_COMMIT_RATE ?? 100);
 /** Lanes (keep-alive connections; for commits, games) of the open-loop runs. */
 const PACED_LANES = Number(process.env.BENCH_PACED_LANES ?? 16);
+/** Where the disk probe writes: the folder of PostgreSQL's data (bench-load.sh says), else here. */
+const DISK_DIR = process.env.BENCH_DISK_DIR ?? '.';
 /** BENCH_ONLY=check or commit: run one half only. */
 const ONLY = process.env.BENCH_ONLY ?? '';
 
@@ -113,14 +116,21 @@ function figures(r: autocannon.Result): Figures {
 	return { rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, requests: r.requests.total, non2xx: r.non2xx, errors: r.errors + r.timeouts };
 }
 
-function pacedFigures(r: PacedResult): Figures & Pick<PacedResult, 'max' | 'maxAtS' | 'maxQueued' | 'clientMaxDelayMs' | 'machine'> {
-	return { rps: r.rps, p50: r.p50, p99: r.p99, requests: r.requests, non2xx: r.non2xx, errors: r.errors, max: r.max, maxAtS: r.maxAtS, maxQueued: r.maxQueued, clientMaxDelayMs: r.clientMaxDelayMs, machine: r.machine };
+function pacedFigures(r: PacedResult): Figures & Pick<PacedResult, 'max' | 'maxAtS' | 'maxQueued' | 'clientMaxDelayMs' | 'machine' | 'disk'> {
+	return { rps: r.rps, p50: r.p50, p99: r.p99, requests: r.requests, non2xx: r.non2xx, errors: r.errors, max: r.max, maxAtS: r.maxAtS, maxQueued: r.maxQueued, clientMaxDelayMs: r.clientMaxDelayMs, machine: r.machine, disk: r.disk };
 }
 
-/** How busy the machine was during an open-loop run, how much of its CPU time was stolen, and
- * how many pages had to be read back from disk. */
-function machineWords(m: PacedResult['machine']): string {
-	return m ? `, machine ${m.busyPct.toFixed(0)} % busy, ${m.stealPct.toFixed(1)} % stolen by the host, ${m.majorFaults} major page faults, ${m.refaults} file pages read back` : '';
+/** How busy the machine was during an open-loop run, how much of its CPU time was stolen, how
+ * many pages had to be read back from disk, and the longest the disk held a request. */
+function machineWords(m: PacedResult['machine'], d: PacedResult['disk']): string {
+	const machine = m ? `, machine ${m.busyPct.toFixed(0)} % busy, ${m.stealPct.toFixed(1)} % stolen by the host, ${m.majorFaults} major page faults, ${m.refaults} file pages read back` : '';
+	const disk = d ? `, the disk longest busy ${d.longestBusyMs.toFixed(0)} ms at a stretch (${d.busyOver20} over 20 ms)` : '';
+	return machine + disk;
+}
+
+function flushWords(f: FlushFigures): string {
+	const n = (x: number) => x.toFixed(2);
+	return `p50 ${n(f.p50)} ms, p99 ${n(f.p99)} ms, p99.9 ${n(f.p999)} ms, max ${n(f.max)} ms; ${f.over20} of ${f.writes} over 20 ms`;
 }
 
 function run(opts: autocannon.Options): Promise<autocannon.Result> {
@@ -188,7 +198,7 @@ async function main(): Promise<void> {
 		console.log(line(`check, as fast as it goes`, checkMax, checkMax.rps >= TARGET.checkRps ? `≥ ${TARGET.checkRps} req/s` : `< ${TARGET.checkRps} req/s`));
 		console.log(line(`check, offered ${TARGET.checkRps} req/s (open loop)`, checkAtTarget, ok(checkMet) + ` (≥ ${TARGET.checkRps} req/s at p99 ≤ ${TARGET.checkP99Ms} ms)`));
 		verdicts.push(`check: ${ok(checkMet)}`);
-		paced.push(`check max ${checkAtTarget.max.toFixed(2)} ms (due at ${checkAtTarget.maxAtS.toFixed(2)} s), at most ${checkAtTarget.maxQueued} waiting for a lane, the client's own longest stall ${checkAtTarget.clientMaxDelayMs.toFixed(1)} ms${machineWords(checkAtTarget.machine)}`);
+		paced.push(`check max ${checkAtTarget.max.toFixed(2)} ms (due at ${checkAtTarget.maxAtS.toFixed(2)} s), at most ${checkAtTarget.maxQueued} waiting for a lane, the client's own longest stall ${checkAtTarget.clientMaxDelayMs.toFixed(1)} ms${machineWords(checkAtTarget.machine, checkAtTarget.disk)}`);
 		Object.assign(json, { checkMax, checkAtTarget });
 	}
 
@@ -276,8 +286,12 @@ async function main(): Promise<void> {
 		console.log(line(`commit (move/take-back), flat out`, commitMax, ok(commitMax.p99 <= TARGET.commitP99Ms) + ` (p99 ≤ ${TARGET.commitP99Ms} ms)`));
 		console.log(line(`commit, offered ${COMMIT_RATE} req/s (open loop)`, commitAtRate, ok(commitAtRate.p99 <= TARGET.commitP99Ms) + ` (p99 ≤ ${TARGET.commitP99Ms} ms)`));
 		verdicts.push(`commit: ${ok(commitMet)}`);
-		paced.push(`commit max ${commitAtRate.max.toFixed(2)} ms (due at ${commitAtRate.maxAtS.toFixed(2)} s), at most ${commitAtRate.maxQueued} waiting for a lane, the client's own longest stall ${commitAtRate.clientMaxDelayMs.toFixed(1)} ms${machineWords(commitAtRate.machine)}`);
-		Object.assign(json, { commitMax, commitAtRate });
+		paced.push(`commit max ${commitAtRate.max.toFixed(2)} ms (due at ${commitAtRate.maxAtS.toFixed(2)} s), at most ${commitAtRate.maxQueued} waiting for a lane, the client's own longest stall ${commitAtRate.clientMaxDelayMs.toFixed(1)} ms${machineWords(commitAtRate.machine, commitAtRate.disk)}`);
+		// The disk's own write-and-flush latency, measured here and now, after the runs (not to
+		// disturb them): what every commit waits for at least once.
+		const flush = await flushProbe(DISK_DIR);
+		console.log(`the disk (${DISK_DIR}): 8 KB write + fdatasync, ${flush.writes} of them 5 ms apart: ${flushWords(flush)}`);
+		Object.assign(json, { commitMax, commitAtRate, flush });
 	}
 
 	console.log(`\nopen-loop runs (latency from when each request fell due, ${PACED_LANES} lanes): ${paced.join('; ')}`);

@@ -16,6 +16,7 @@ import { readFileSync } from 'node:fs';
 import http from 'node:http';
 import { monitorEventLoopDelay, performance } from 'node:perf_hooks';
 import * as hdr from 'hdr-histogram-js';
+import { DiskWatch, type DiskFigures } from './disk';
 
 export interface PacedRequest {
 	method: string;
@@ -62,6 +63,9 @@ export interface PacedResult {
 	 * kernel paged it out) and the file pages read back after eviction (`workingset_refault_file`:
 	 * also what PostgreSQL reads through the page cache), each a stall of whoever needed it. */
 	machine: { busyPct: number; stealPct: number; majorFaults: number; refaults: number } | null;
+	/** The disks over the run, sampled every tick (./disk.ts): the longest stretch a request
+	 * stayed in flight at a disk — a commit waits for its WAL write — or null without diskstats. */
+	disk: DiskFigures | null;
 }
 
 /** The summed CPU times of the first line of /proc/stat (user … steal), the system's major
@@ -104,6 +108,7 @@ export function runPaced<Lane>(opts: PacedOptions<Lane>): Promise<PacedResult> {
 	let worst = { ms: 0, dueAt: 0 };
 
 	const delay = monitorEventLoopDelay({ resolution: 5 });
+	const disk = new DiskWatch();
 	let cpuAtStart: ReturnType<typeof cpuTimes> = null;
 	return new Promise((resolve) => {
 		const finish = () => {
@@ -135,7 +140,8 @@ export function runPaced<Lane>(opts: PacedOptions<Lane>): Promise<PacedResult> {
 								majorFaults: cpuAtEnd.majorFaults - cpuAtStart.majorFaults,
 								refaults: cpuAtEnd.refaults - cpuAtStart.refaults
 							}
-						: null
+						: null,
+				disk: disk.figures()
 			});
 			histogram.destroy();
 		};
@@ -174,6 +180,7 @@ export function runPaced<Lane>(opts: PacedOptions<Lane>): Promise<PacedResult> {
 		};
 		const tick = () => {
 			const now = performance.now();
+			disk.sample(now);
 			while (scheduled < total && start + scheduled * intervalMs <= now) {
 				const dueAt = start + scheduled * intervalMs;
 				scheduled++;
