@@ -81,14 +81,36 @@ export async function subscribe(gameId: number, fn: Listener): Promise<() => voi
 /** Streams opened by this process, closed on shutdown so the server can exit. */
 const streams = new Set<() => void>();
 export function trackStream(close: () => void): () => void {
+	// A stream opened while the server shuts down ends straight away.
+	if (closed) setImmediate(close);
 	streams.add(close);
 	return () => streams.delete(close);
 }
 
-// adapter-node waits for open handles on shutdown: end the streams and the LISTEN connection.
-process.on('sveltekit:shutdown', () => {
+// On SIGTERM/SIGINT adapter-node stops taking connections and waits for the open ones before it
+// emits 'sveltekit:shutdown' — up to SHUTDOWN_TIMEOUT (30 s) when a tablet holds a live stream
+// open. So the streams end at the signal (the tablets' EventSource reconnects, to another server
+// or to this one restarted, and Last-Event-ID tells it what it missed); in-flight requests finish.
+function endStreams(): void {
 	closed = true;
 	for (const close of [...streams]) close();
+}
+for (const signal of ['SIGTERM', 'SIGINT'] as const) {
+	const onSignal = () => {
+		endStreams();
+		// Alone (no server of adapter-node's listening for it, e.g. a script), keep the signal's
+		// default: end the process.
+		if (process.listenerCount(signal) === 1) {
+			process.removeListener(signal, onSignal);
+			process.kill(process.pid, signal);
+		}
+	};
+	process.on(signal, onSignal);
+}
+
+// Then, with every request done, the LISTEN connection.
+process.on('sveltekit:shutdown', () => {
+	endStreams();
 	void client?.end().catch(() => undefined);
 });
 

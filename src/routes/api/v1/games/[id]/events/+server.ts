@@ -64,6 +64,7 @@ export const GET: RequestHandler = async ({ locals, params, request, url }) => {
 			unsubscribe = off;
 			untrack = live.trackStream(() => close());
 			const game = await games.find(id);
+			if (!open) return; // ended meanwhile: the client left, or the server shuts down
 			if (game) sendSeq(game.seq);
 			send(': connected\n\n');
 			heartbeat = setInterval(() => send(': keep-alive\n\n'), HEARTBEAT_MS);
