@@ -19,7 +19,8 @@
 
 const given = new WeakMap<Request, AbortSignal>();
 
-function makeRequestClass(Native: typeof Request): typeof Request {
+/** The signal-keeping subclass of `Native` (exported for the tests). */
+export function makeRequestClass(Native: typeof Request): typeof Request {
 	class SignalRequest extends Native {
 		constructor(input: RequestInfo | URL, init?: RequestInit) {
 			const signal = init?.signal ?? (input instanceof Native ? given.get(input) : undefined);
@@ -59,5 +60,3 @@ export function installRequestSignals(scope: { Request: typeof Request } = globa
 	target.Request = makeRequestClass(target.Request);
 	target[installed] = true;
 }
-
-export { makeRequestClass };
