@@ -25,8 +25,16 @@ ensure_deps
 [ -x "$CHROMIUM_PATH" ] || apt_install chromium fonts-liberation
 services_up "${DATABASE_URL##*/}" "$SLOT"
 
+# TEST_STAGES picks stages while working (e.g. TEST_STAGES=vitest npm test -- tests/unit/auth);
+# CI and a plain npm test run all three, and the summary names any stage left out.
+STAGES=" ${TEST_STAGES:-svelte-check vitest playwright} "
 FAILED=()
-stage() { local name="$1"; shift; log "── $name"; "$@" || FAILED+=("$name"); }
+SKIPPED=()
+stage() {
+	local name="$1"; shift
+	if [ "${STAGES#* $name }" = "$STAGES" ]; then SKIPPED+=("$name"); log "── $name: not asked for (TEST_STAGES)"; return 0; fi
+	log "── $name"; "$@" || FAILED+=("$name")
+}
 
 stage "svelte-check" bash -c 'node_modules/.bin/svelte-kit sync && node_modules/.bin/svelte-check --tsconfig ./tsconfig.json --output human --threshold error'
 log "building"
@@ -42,5 +50,9 @@ echo
 if [ "${#FAILED[@]}" -gt 0 ]; then
 	log "FAILED: ${FAILED[*]} (after ${SECONDS}s)"
 	exit 1
+fi
+if [ "${#SKIPPED[@]}" -gt 0 ]; then
+	log "passed, but NOT run: ${SKIPPED[*]} (TEST_STAGES) (after ${SECONDS}s)"
+	exit 0
 fi
 log "all stages passed: svelte-check, vitest, playwright (in ${SECONDS}s)"
